@@ -1,0 +1,13 @@
+/**
+ * The command registry. To add a command, write `src/cli/commands/NAME.ts` exporting a
+ * `CommandSpec` and list it here; `main.ts` dispatches and builds `--help` from this list.
+ */
+import type { CommandSpec } from '../command';
+import { checkCommand } from './check';
+
+/** Every command, in the order `plumbline --help` lists them. */
+export const COMMANDS: readonly CommandSpec[] = [checkCommand];
+
+export function findCommand(name: string): CommandSpec | undefined {
+  return COMMANDS.find((c) => c.name === name);
+}

@@ -1,0 +1,33 @@
+/** Scenario files: schema, validation, unit conversion, and writing back. */
+export type { Scenario, ScenarioError, ParseResult, UnitSystem } from './types';
+export { parseScenario, parseScenarioText, defaultBodyShape, SCENARIO_DEFAULTS } from './parse';
+export { scenarioToFile, type ScenarioFileObject } from './write';
+export {
+  scenarioFileSchema,
+  SCENARIO_VERSION,
+  SCENARIO_LIMITS,
+  PLAUSIBLE,
+  FEATURE_TYPES,
+  SUSPENSION_TYPES,
+  UNIT_SYSTEMS,
+  DOWNHILL_NAMES,
+  MAX_ELEMENT_MESSAGES,
+  type DownhillName,
+  type ScenarioFileData,
+  type ScenarioFileSchema,
+} from './schema';
+export {
+  M_PER_IN,
+  M_PER_FT,
+  KG_PER_LB,
+  N_PER_LBF,
+  STANDARD_GRAVITY_M_PER_S2,
+  RAD_PER_DEG,
+  toSI,
+  fromSI,
+  metricToFileUnits,
+  metricPerFileUnit,
+  siPerMetricFileUnit,
+  unitLabel,
+  type QuantityKind,
+} from './units';

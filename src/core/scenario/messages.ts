@@ -1,0 +1,50 @@
+/**
+ * Wording of scenario messages: how values and field paths are shown. Every message the
+ * scenario parser produces goes through these helpers, so zod's own wording never reaches a user.
+ */
+
+const MAX_SHOWN_CHARS = 40;
+
+/** A value as shown after "got": numbers as written (NaN, Infinity, -1.6), strings quoted. */
+export function describeValue(v: unknown): string {
+  if (v === undefined) return 'nothing';
+  if (v === null) return 'null';
+  if (typeof v === 'number') return Object.is(v, -0) ? '0' : String(v);
+  if (typeof v === 'string') {
+    const s = v.length > MAX_SHOWN_CHARS ? `${v.slice(0, MAX_SHOWN_CHARS)}…` : v;
+    return JSON.stringify(s);
+  }
+  if (typeof v === 'boolean') return String(v);
+  if (Array.isArray(v)) {
+    if (v.length <= 4 && v.every((x) => typeof x === 'number' || typeof x === 'string' || typeof x === 'boolean' || x === null)) {
+      return `[${v.map(describeValue).join(', ')}]`;
+    }
+    return `a list of ${v.length} items`;
+  }
+  if (typeof v === 'object') return 'an object';
+  return `a ${typeof v}`;
+}
+
+/** A bound or derived value for a message: at most 4 decimals, or 4 significant digits below 1. */
+export function formatLimit(v: number): string {
+  if (!Number.isFinite(v)) return String(v);
+  const a = Math.abs(v);
+  if (a === 0) return '0';
+  const r = a >= 1 ? Math.round(v * 1e4) / 1e4 : Number(v.toPrecision(4));
+  return String(r);
+}
+
+/** A value with its unit, e.g. "2.8 m"; a bare number when the unit is "". */
+export function withUnit(v: number, unit: string): string {
+  return unit ? `${formatLimit(v)} ${unit}` : formatLimit(v);
+}
+
+/** Field path as written in messages: `vehicle.track.front`, `terrain.features[2].type`. */
+export function formatPath(path: readonly PropertyKey[]): string {
+  let out = '';
+  for (const seg of path) {
+    if (typeof seg === 'number') out += `[${seg}]`;
+    else out += out === '' ? String(seg) : `.${String(seg)}`;
+  }
+  return out === '' ? '(file)' : out;
+}

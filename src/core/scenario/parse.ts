@@ -1,0 +1,557 @@
+/**
+ * Scenario file → core `Scenario` (SI). Never throws: every problem becomes a `ScenarioError`
+ * naming the field path, the bad value and the expected unit or range, and all of them are
+ * collected in one pass.
+ *
+ * Steps: (1) copy the input into plain JSON data, refusing anything else (class instances,
+ * functions, cycles) and turning a "__proto__" key into an ordinary own key, so that nothing
+ * inherited is ever read and nothing is polluted; (2) the zod schema for the file's unit system;
+ * (3) checks across fields; (4) conversion to SI with the defaults applied in one place.
+ */
+import type { AxleSuspension, BodyShape, PathSpec, PayloadItem, TerrainFeature, TyreSpec, Vehicle } from '../model/types';
+import type { ParseResult, Scenario, ScenarioError, UnitSystem } from './types';
+import {
+  DOWNHILL_NAMES,
+  SCENARIO_LIMITS,
+  scenarioFileSchema,
+  type ScenarioFileData,
+} from './schema';
+import { describeValue, formatLimit, formatPath, withUnit } from './messages';
+import { RAD_PER_DEG, metricToFileUnits, toSI, unitLabel } from './units';
+
+/**
+ * Defaults for optional fields, in metric file units (m, deg). Applied only in `toScenario`.
+ */
+export const SCENARIO_DEFAULTS = {
+  /** @default "" */
+  notes: '',
+  /** Lateral CG offset (m). @default 0 */
+  leftOfCentreM: 0,
+  /** Anti-roll bar (N·m/deg). @default 0 (none) */
+  antiRollNmPerDeg: 0,
+  /** Pose (m, deg). @default 0, 0, 0 */
+  poseXM: 0,
+  poseYM: 0,
+  poseHeadingDeg: 0,
+  /** Tilt angle (deg). @default 0 */
+  tiltAngleDeg: 0,
+  /** Tilt direction. @default "left" (left side down) */
+  tiltDownhill: 'left' as const,
+  /** Path station spacing (m). @default 0.05 */
+  pathStepM: 0.05,
+  /** Tyre-on-ground friction coefficient. @default 0.7 (loose moist dirt is 0.60–0.65, Noon 1994) */
+  friction: 0.7,
+  /** Plane grade and cross slope (deg) and height (m). @default 0 */
+  planeDeg: 0,
+  /** Edge radius of steps and blocks (m). @default 0 (sharp) */
+  edgeRadiusM: 0,
+} as const;
+
+/**
+ * Rough body outline used when the file gives no `vehicle.body` (or leaves some of its keys out).
+ * Ballpark values for a stock mid-size 4×4 (common practice, invented, not measured); a clearance
+ * check is only as good as the outline, so the parser warns when it uses them.
+ * - overhangs: 0.9 m front, 1.0 m rear
+ * - width: the wider track plus the wider tyre (the body reaches the tyres' outer faces)
+ * - belly: 0.6 × the smaller tyre radius (a 0.39 m tyre gives 0.23 m of clearance)
+ * - bumpers: 1.1 × the front tyre radius, 1.2 × the rear tyre radius
+ * - roof: 2.4 × the CG height (a 0.78 m CG gives a 1.87 m roof)
+ */
+export function defaultBodyShape(v: Omit<Vehicle, 'body' | 'payload'>): BodyShape {
+  return {
+    frontOverhangM: 0.9,
+    rearOverhangM: 1.0,
+    widthM: Math.max(v.trackFrontM, v.trackRearM) + Math.max(v.tyreFront.widthM, v.tyreRear.widthM),
+    bellyClearanceM: 0.6 * Math.min(v.tyreFront.radiusM, v.tyreRear.radiusM),
+    frontBumperClearanceM: 1.1 * v.tyreFront.radiusM,
+    rearBumperClearanceM: 1.2 * v.tyreRear.radiusM,
+    roofHeightM: 2.4 * v.cg.heightM,
+  };
+}
+
+const MAX_DEPTH = 32;
+
+type Plain = Record<string, unknown>;
+
+function isPlainObject(v: unknown): v is Plain {
+  if (v === null || typeof v !== 'object' || Array.isArray(v)) return false;
+  const proto = Object.getPrototypeOf(v);
+  return proto === Object.prototype || proto === null;
+}
+
+/** Own property only: inherited values (from a prototype) are never read. */
+function own(o: unknown, key: string): unknown {
+  return isPlainObject(o) && Object.prototype.hasOwnProperty.call(o, key) ? o[key] : undefined;
+}
+
+/**
+ * Deep copy into plain JSON data. Keys are defined, not assigned, so a "__proto__" key stays an
+ * ordinary (and then unknown) key. Typed arrays become plain arrays.
+ */
+function toPlainData(
+  v: unknown,
+  path: (string | number)[],
+  errors: ScenarioError[],
+  blocked: string[],
+  ancestors: unknown[],
+): unknown {
+  if (v === null || v === undefined || typeof v === 'number' || typeof v === 'string' || typeof v === 'boolean') return v;
+  const refuse = (message: string): undefined => {
+    const p = formatPath(path);
+    errors.push({ path: p, message });
+    blocked.push(p);
+    return undefined;
+  };
+  if (typeof v !== 'object') return refuse(`must be JSON data (object, list, text, number, true/false, null), got a ${typeof v}`);
+  if (ancestors.includes(v)) return refuse('refers back to itself (a cycle); a scenario must be a tree of JSON data');
+  if (ancestors.length >= MAX_DEPTH) return refuse(`nested deeper than ${MAX_DEPTH} levels`);
+  if (ArrayBuffer.isView(v) && !(v instanceof DataView)) {
+    return Array.from(v as unknown as ArrayLike<number>);
+  }
+  ancestors.push(v);
+  try {
+    if (Array.isArray(v)) {
+      const out: unknown[] = new Array(v.length);
+      for (let i = 0; i < v.length; i++) {
+        const x = v[i];
+        if (x === null || typeof x === 'number' || typeof x === 'string' || typeof x === 'boolean') out[i] = x;
+        else {
+          path.push(i);
+          out[i] = toPlainData(x, path, errors, blocked, ancestors);
+          path.pop();
+        }
+      }
+      return out;
+    }
+    if (!isPlainObject(v)) {
+      // Name the class only when the prototype itself declares it (Date, Map, a user class).
+      const proto: unknown = Object.getPrototypeOf(v);
+      const ctor = Object.prototype.hasOwnProperty.call(proto, 'constructor') ? (proto as { constructor?: { name?: unknown } }).constructor : undefined;
+      const name = typeof ctor?.name === 'string' && ctor.name !== '' && ctor.name !== 'Object' ? ctor.name : '';
+      return refuse(`must be JSON data, got ${name ? `a ${name}` : 'an object with a prototype'}`);
+    }
+    const out: Plain = {};
+    for (const key of Object.keys(v)) {
+      path.push(key);
+      const value = toPlainData(v[key], path, errors, blocked, ancestors);
+      path.pop();
+      Object.defineProperty(out, key, { value, enumerable: true, writable: true, configurable: true });
+    }
+    return out;
+  } finally {
+    ancestors.pop();
+  }
+}
+
+/** Message for any zod issue that a field's own message builder did not cover. */
+function fallbackMessage(iss: { code?: string; input?: unknown; expected?: unknown }): string {
+  if (iss.input === undefined) return 'required';
+  switch (iss.code) {
+    case 'invalid_type':
+      return `must be ${typeof iss.expected === 'string' ? `a ${iss.expected}` : 'of another type'}, got ${describeValue(iss.input)}`;
+    case 'too_small':
+    case 'too_big':
+      return `out of range, got ${describeValue(iss.input)}`;
+    default:
+      return `not allowed here, got ${describeValue(iss.input)}`;
+  }
+}
+
+interface ZodIssueLike {
+  readonly code: string;
+  readonly path: readonly PropertyKey[];
+  readonly message: string;
+  readonly keys?: readonly string[];
+}
+
+function isUnder(path: string, prefix: string): boolean {
+  return (
+    path === prefix ||
+    prefix === '(file)' ||
+    (path.startsWith(prefix) && (path[prefix.length] === '.' || path[prefix.length] === '['))
+  );
+}
+
+/** Checks across fields, on the plain data, for fields that are themselves valid. */
+function crossChecks(data: unknown, units: UnitSystem, errors: ScenarioError[]): void {
+  const bad = new Set(errors.map((e) => e.path));
+  const L = unitLabel('length', units);
+  const M = unitLabel('mass', units);
+  const push = (path: string, message: string) => errors.push({ path, message });
+  /** A finite number at a field that has no error of its own. */
+  const num = (path: string, v: unknown): v is number => typeof v === 'number' && Number.isFinite(v) && !bad.has(path);
+  const positive = (path: string, v: unknown): v is number => num(path, v) && v > 0;
+
+  const vehicle = own(data, 'vehicle');
+  const wb = own(vehicle, 'wheelbase');
+  const track = own(vehicle, 'track');
+  const tf = own(track, 'front');
+  const tr = own(track, 'rear');
+  const cg = own(vehicle, 'cg');
+
+  // The vehicle's CG lies between the axles (on an axle at most): the static load split needs it.
+  const cx = own(cg, 'behindFrontAxle');
+  if (positive('vehicle.wheelbase', wb) && num('vehicle.cg.behindFrontAxle', cx) && (cx < 0 || cx > wb)) {
+    push('vehicle.cg.behindFrontAxle', `must lie within the wheelbase (0 to ${withUnit(wb, L)}), got ${describeValue(cx)}`);
+  }
+  // A CG offset of half a track or more puts it over (or past) a tyre line: tipped at rest.
+  const cy = own(cg, 'leftOfCentre');
+  if (positive('vehicle.track.front', tf) && positive('vehicle.track.rear', tr) && num('vehicle.cg.leftOfCentre', cy)) {
+    const half = Math.min(tf, tr) / 2;
+    if (Math.abs(cy) >= half) {
+      push('vehicle.cg.leftOfCentre', `must lie within half the narrower track (±${withUnit(half, L)}), got ${describeValue(cy)}`);
+    }
+  }
+  // Unsprung masses are part of the total mass; the body must have a mass of its own.
+  const mass = own(vehicle, 'mass');
+  const unsprung = own(vehicle, 'unsprungMass');
+  const uf = own(unsprung, 'front');
+  const ur = own(unsprung, 'rear');
+  if (
+    positive('vehicle.mass', mass) &&
+    positive('vehicle.unsprungMass.front', uf) &&
+    positive('vehicle.unsprungMass.rear', ur) &&
+    uf + ur >= mass
+  ) {
+    push('vehicle.unsprungMass', `front + rear must be < vehicle.mass (${withUnit(mass, M)}), got ${formatLimit(uf + ur)}`);
+  }
+  // Tyres narrower than the track they run on (else the two tyres of an axle overlap).
+  const tyre = own(vehicle, 'tyre');
+  const tyreRear = own(vehicle, 'tyreRear');
+  const hasRear = tyreRear !== undefined;
+  const tw = own(tyre, 'width');
+  if (num('vehicle.tyre.width', tw) && positive('vehicle.track.front', tf) && (hasRear || positive('vehicle.track.rear', tr))) {
+    const useRear = !hasRear && (tr as number) < tf;
+    const limit = useRear ? (tr as number) : tf;
+    if (tw >= limit) push('vehicle.tyre.width', `must be < the ${useRear ? 'rear' : 'front'} track (${withUnit(limit, L)}), got ${describeValue(tw)}`);
+  }
+  const twr = own(tyreRear, 'width');
+  if (hasRear && num('vehicle.tyreRear.width', twr) && positive('vehicle.track.rear', tr) && twr >= tr) {
+    push('vehicle.tyreRear.width', `must be < the rear track (${withUnit(tr, L)}), got ${describeValue(twr)}`);
+  }
+  // Spring spacing describes a beam axle's two springs; an independent corner has no such thing.
+  const susp = own(vehicle, 'suspension');
+  for (const end of ['front', 'rear'] as const) {
+    const axle = own(susp, end);
+    if (own(axle, 'type') === 'independent' && own(axle, 'springSpacing') !== undefined) {
+      push(`vehicle.suspension.${end}.springSpacing`, 'only for a "solid" axle; this axle is "independent"');
+    }
+  }
+  // Roof above belly.
+  const body = own(vehicle, 'body');
+  const belly = own(body, 'bellyClearance');
+  const roof = own(body, 'roofHeight');
+  if (num('vehicle.body.bellyClearance', belly) && num('vehicle.body.roofHeight', roof) && roof <= belly) {
+    push('vehicle.body.roofHeight', `must be > vehicle.body.bellyClearance (${withUnit(belly, L)}), got ${describeValue(roof)}`);
+  }
+
+  // Grid: cols × rows within the node limit, and exactly that many heights.
+  const features = own(own(data, 'terrain'), 'features');
+  if (Array.isArray(features)) {
+    for (let i = 0; i < features.length && i < SCENARIO_LIMITS.features; i++) {
+      const f = features[i];
+      if (own(f, 'type') !== 'grid') continue;
+      const p = `terrain.features[${i}]`;
+      const cols = own(f, 'cols');
+      const rows = own(f, 'rows');
+      if (!num(`${p}.cols`, cols) || !num(`${p}.rows`, rows) || !Number.isInteger(cols) || !Number.isInteger(rows)) continue;
+      if (cols < 2 || rows < 2) continue;
+      const n = cols * rows;
+      if (n > SCENARIO_LIMITS.gridNodes) {
+        push(p, `cols × rows must be ≤ ${SCENARIO_LIMITS.gridNodes} nodes, got ${n}`);
+        continue;
+      }
+      const heights = own(f, 'heights');
+      if (Array.isArray(heights) && heights.length !== n && heights.length <= SCENARIO_LIMITS.gridNodes) {
+        push(`${p}.heights`, `must have cols × rows = ${n} values, got ${heights.length}`);
+      }
+    }
+  }
+
+  // Path: a real segment, and not more stations than a pass can afford.
+  const path = own(data, 'path');
+  const from = own(path, 'from');
+  const to = own(path, 'to');
+  const pairOk = (p: string, v: unknown): v is [number, number] =>
+    Array.isArray(v) && v.length === 2 && num(`${p}[0]`, v[0]) && num(`${p}[1]`, v[1]) && !bad.has(p);
+  if (pairOk('path.from', from) && pairOk('path.to', to)) {
+    const dist = Math.hypot(to[0] - from[0], to[1] - from[1]);
+    if (dist === 0) push('path.to', `must differ from path.from, got ${describeValue(to)}`);
+    const stepRaw = own(path, 'step');
+    const step = stepRaw === undefined ? metricToFileUnits('length', SCENARIO_DEFAULTS.pathStepM, units) : stepRaw;
+    if (dist > 0 && positive('path.step', step)) {
+      const stations = Math.floor(dist / step) + 1;
+      if (stations > SCENARIO_LIMITS.pathStations) {
+        const minStep = dist / (SCENARIO_LIMITS.pathStations - 1);
+        push(
+          'path.step',
+          `must be ≥ ${withUnit(minStep, L)} for at most ${SCENARIO_LIMITS.pathStations} stations on this path, got ${describeValue(step)}${stepRaw === undefined ? ' (the default)' : ''}`,
+        );
+      }
+    }
+  }
+}
+
+/** Validated file data → the SI core form, defaults applied. */
+function toScenario(d: ScenarioFileData, warnings: string[]): Scenario {
+  const u = d.units;
+  const D = SCENARIO_DEFAULTS;
+  const m = (v: number) => toSI('length', v, u);
+  const kg = (v: number) => toSI('mass', v, u);
+  const rad = (v: number) => toSI('angle', v, u);
+  const range = (r: readonly [number, number] | undefined): readonly [number, number] | null => (r ? [m(r[0]), m(r[1])] : null);
+
+  const v = d.vehicle;
+  const tyre = (t: typeof v.tyre): TyreSpec => ({
+    radiusM: m(t.radius),
+    widthM: m(t.width),
+    stiffnessNPerM: toSI('stiffness', t.stiffness, u),
+  });
+  const axle = (a: typeof v.suspension.front): AxleSuspension => {
+    const out: AxleSuspension = {
+      type: a.type,
+      wheelRateNPerM: toSI('stiffness', a.wheelRate, u),
+      bumpM: m(a.bump),
+      droopM: m(a.droop),
+      antiRollNmPerRad: toSI('rollStiffness', a.antiRoll ?? D.antiRollNmPerDeg, u),
+      rollCentreHeightM: m(a.rollCentreHeight),
+    };
+    return a.springSpacing === undefined ? out : { ...out, springSpacingM: m(a.springSpacing) };
+  };
+  const payload: PayloadItem[] = (v.payload ?? []).map((p) => ({
+    label: p.label,
+    massKg: kg(p.mass),
+    behindFrontAxleM: m(p.behindFrontAxle),
+    heightM: m(p.height),
+    leftOfCentreM: m(p.leftOfCentre ?? D.leftOfCentreM),
+  }));
+  const base: Omit<Vehicle, 'body' | 'payload'> = {
+    name: v.name,
+    wheelbaseM: m(v.wheelbase),
+    trackFrontM: m(v.track.front),
+    trackRearM: m(v.track.rear),
+    massKg: kg(v.mass),
+    cg: {
+      behindFrontAxleM: m(v.cg.behindFrontAxle),
+      heightM: m(v.cg.height),
+      leftOfCentreM: m(v.cg.leftOfCentre ?? D.leftOfCentreM),
+    },
+    unsprungMassFrontKg: kg(v.unsprungMass.front),
+    unsprungMassRearKg: kg(v.unsprungMass.rear),
+    tyreFront: tyre(v.tyre),
+    tyreRear: tyre(v.tyreRear ?? v.tyre),
+    suspensionFront: axle(v.suspension.front),
+    suspensionRear: axle(v.suspension.rear),
+  };
+  const fallback = defaultBodyShape(base);
+  const b = v.body ?? {};
+  const bodyKeys = [
+    ['frontOverhang', 'frontOverhangM'],
+    ['rearOverhang', 'rearOverhangM'],
+    ['width', 'widthM'],
+    ['bellyClearance', 'bellyClearanceM'],
+    ['frontBumperClearance', 'frontBumperClearanceM'],
+    ['rearBumperClearance', 'rearBumperClearanceM'],
+    ['roofHeight', 'roofHeightM'],
+  ] as const;
+  const body: Record<string, number> = {};
+  const defaulted: string[] = [];
+  for (const [fileKey, coreKey] of bodyKeys) {
+    const given = b[fileKey];
+    if (given === undefined) defaulted.push(fileKey);
+    body[coreKey] = given === undefined ? fallback[coreKey] : m(given);
+  }
+  if (defaulted.length === bodyKeys.length) {
+    warnings.push('vehicle.body: not given; using a rough outline derived from the vehicle: clearance results are only indicative');
+  } else if (defaulted.length > 0) {
+    warnings.push(`vehicle.body: ${defaulted.join(', ')} not given; using rough values derived from the vehicle`);
+  }
+  const vehicle: Vehicle = { ...base, payload, body: body as unknown as BodyShape };
+
+  // A roll centre at or above the CG reverses the body's lean: legal, but usually a typo.
+  for (const [end, a] of [['front', vehicle.suspensionFront], ['rear', vehicle.suspensionRear]] as const) {
+    if (a.rollCentreHeightM >= vehicle.cg.heightM) {
+      warnings.push(
+        `vehicle.suspension.${end}.rollCentreHeight: at or above the CG height (${withUnit(v.cg.height, unitLabel('length', u))}); the body would lean into the slope`,
+      );
+    }
+  }
+
+  const features: TerrainFeature[] = d.terrain.features.map((f): TerrainFeature => {
+    switch (f.type) {
+      case 'plane':
+        return {
+          type: 'plane',
+          gradeRad: rad(f.grade ?? D.planeDeg),
+          crossSlopeRad: rad(f.crossSlope ?? D.planeDeg),
+          heightM: m(f.height ?? 0),
+        };
+      case 'step':
+        return { type: 'step', xM: m(f.x), heightM: m(f.height), yRangeM: range(f.y), edgeRadiusM: m(f.edgeRadius ?? D.edgeRadiusM) };
+      case 'block':
+        return {
+          type: 'block',
+          xRangeM: range(f.x) as readonly [number, number],
+          yRangeM: range(f.y) as readonly [number, number],
+          heightM: m(f.height),
+          edgeRadiusM: m(f.edgeRadius ?? D.edgeRadiusM),
+        };
+      case 'rock':
+        return { type: 'rock', xM: m(f.x), yM: m(f.y), heightM: m(f.height), radiusM: m(f.radius) };
+      case 'ramp':
+        return { type: 'ramp', xM: m(f.x), angleRad: rad(f.angle), lengthM: m(f.length), yRangeM: range(f.y) };
+      case 'profile':
+        return {
+          type: 'profile',
+          axis: f.axis,
+          points: f.points.map((p) => [m(p[0]), m(p[1])] as const),
+          acrossM: range(f.across),
+        };
+      case 'grid': {
+        const h = f.heights;
+        if (u !== 'metric') for (let i = 0; i < h.length; i++) h[i] = m(h[i]);
+        return {
+          type: 'grid',
+          originM: [m(f.origin[0]), m(f.origin[1])],
+          spacingM: m(f.spacing),
+          cols: f.cols,
+          rows: f.rows,
+          heightsM: h,
+        };
+      }
+    }
+  });
+
+  const pose = d.pose ?? {};
+  const tilt = d.tilt ?? {};
+  const downhill = tilt.downhill ?? D.tiltDownhill;
+  // Downhill direction, normalised into [0°, 360°) before conversion.
+  const downhillDeg = typeof downhill === 'string' ? DOWNHILL_NAMES[downhill] : ((downhill % 360) + 360) % 360;
+  let path: PathSpec | null = null;
+  if (d.path) {
+    path = {
+      fromM: [m(d.path.from[0]), m(d.path.from[1])],
+      toM: [m(d.path.to[0]), m(d.path.to[1])],
+      stepM: d.path.step === undefined ? D.pathStepM : m(d.path.step),
+      headingRad: d.path.heading === undefined ? null : rad(d.path.heading),
+    };
+  }
+  return {
+    version: d.version,
+    name: d.name,
+    units: u,
+    vehicle,
+    terrain: { features },
+    pose: {
+      xM: m(pose.x ?? D.poseXM),
+      yM: m(pose.y ?? D.poseYM),
+      headingRad: rad(pose.heading ?? D.poseHeadingDeg),
+    },
+    tilt: { angleRad: rad(tilt.angle ?? D.tiltAngleDeg), downhillRad: downhillDeg * RAD_PER_DEG },
+    path,
+    friction: d.ground?.friction ?? D.friction,
+    notes: d.notes ?? D.notes,
+  };
+}
+
+function dedupe(errors: ScenarioError[]): ScenarioError[] {
+  const seen = new Set<string>();
+  const out: ScenarioError[] = [];
+  for (const e of errors) {
+    const k = `${e.path}\u0000${e.message}`;
+    if (seen.has(k)) continue;
+    seen.add(k);
+    out.push(e);
+  }
+  return out;
+}
+
+function internalError(e: unknown): ParseResult {
+  const why = e instanceof Error ? e.message : String(e);
+  return { ok: false, errors: [{ path: '(file)', message: `could not be read: internal error (${why})` }] };
+}
+
+/**
+ * Validate a scenario given as parsed JSON data (or any value) and convert it to the SI core form.
+ * Never throws. Errors list every problem found; warnings note defaults and odd-but-legal values.
+ */
+export function parseScenario(input: unknown): ParseResult {
+  try {
+    const errors: ScenarioError[] = [];
+    const blocked: string[] = [];
+    const data = toPlainData(input, [], errors, blocked, []);
+    if (data !== undefined && !isPlainObject(data) && blocked.length === 0) {
+      return { ok: false, errors: [{ path: '(file)', message: `must be a JSON object, got ${describeValue(data)}` }] };
+    }
+    if (data === undefined && blocked.length === 0) {
+      return { ok: false, errors: [{ path: '(file)', message: 'must be a JSON object, got nothing' }] };
+    }
+    // Units first: they decide how every other number reads. An unknown system is reported by the
+    // schema; the remaining messages then speak metric.
+    const units: UnitSystem = own(data, 'units') === 'imperial' ? 'imperial' : 'metric';
+    const result = scenarioFileSchema(units).safeParse(data, { error: fallbackMessage });
+    if (!result.success) {
+      for (const iss of result.error.issues as readonly ZodIssueLike[]) {
+        if (iss.code === 'unrecognized_keys' && iss.keys) {
+          for (const key of iss.keys) errors.push({ path: formatPath([...iss.path, key]), message: 'unknown key' });
+          continue;
+        }
+        const p = formatPath(iss.path);
+        // A value already refused as non-JSON data is not reported again.
+        if (blocked.some((b) => isUnder(p, b))) continue;
+        errors.push({ path: p, message: iss.message });
+      }
+    }
+    crossChecks(data, units, errors);
+    if (errors.length > 0 || !result.success) return { ok: false, errors: dedupe(errors) };
+    const warnings: string[] = [];
+    const scenario = toScenario(result.data, warnings);
+    return { ok: true, scenario, warnings };
+  } catch (e) {
+    return internalError(e);
+  }
+}
+
+/** Line and column (1-based) of a character offset. */
+function lineColumn(text: string, offset: number): { line: number; column: number } {
+  let line = 1;
+  let last = -1;
+  for (let i = 0; i < offset && i < text.length; i++) {
+    if (text.charCodeAt(i) === 10) {
+      line++;
+      last = i;
+    }
+  }
+  return { line, column: offset - last };
+}
+
+/** Validate a scenario file's text (JSON). Never throws; a syntax error is one error at "(file)". */
+export function parseScenarioText(text: string): ParseResult {
+  try {
+    if (typeof text !== 'string') {
+      return { ok: false, errors: [{ path: '(file)', message: `must be text, got ${describeValue(text)}` }] };
+    }
+    if (text.length > SCENARIO_LIMITS.fileChars) {
+      return {
+        ok: false,
+        errors: [{ path: '(file)', message: `must be at most ${SCENARIO_LIMITS.fileChars} characters, got ${text.length}` }],
+      };
+    }
+    const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+    let data: unknown;
+    try {
+      data = JSON.parse(body);
+    } catch (e) {
+      const why = e instanceof Error ? e.message : String(e);
+      const at = /position (\d+)/.exec(why);
+      const where = at ? (() => {
+        const lc = lineColumn(body, Number(at[1]));
+        return ` at line ${lc.line}, column ${lc.column}`;
+      })() : '';
+      return { ok: false, errors: [{ path: '(file)', message: `not valid JSON${where}: ${why}` }] };
+    }
+    return parseScenario(data);
+  } catch (e) {
+    return internalError(e);
+  }
+}

@@ -1,0 +1,501 @@
+/**
+ * Quasi-static pose solver: Newton's method on the vehicle's equilibrium equations (see model.ts),
+ * with a Jacobian by finite differences over the tyres' linearisation (one ray cast per
+ * iteration, not one per unknown), a step limit, a backtracking line search, and a damped
+ * least-squares step where the Newton system is singular.
+ */
+import type {
+  Pose,
+  SolveOptions,
+  SolveResult,
+  SolveStatus,
+  StabilityMargins,
+  Terrain,
+  Vehicle,
+  WheelName,
+  WheelResult,
+} from '../model/types';
+import { WHEEL_NAMES } from '../model/types';
+import { solveLinearInPlace } from '../math/linalg';
+import { TerrainField } from '../terrain/field';
+import { stabilityMargins } from './margins';
+import {
+  GRAVITY_MPS2,
+  type ModelOptions,
+  Q_PITCH,
+  Q_ROLL,
+  Q_SUSP,
+  Q_VX,
+  Q_VY,
+  Q_Z,
+  R_SUSP,
+  STATE_SIZE,
+  VehicleModel,
+  rigidStaticLoads,
+} from './model';
+
+export const DEFAULT_TOLERANCE = 1e-8;
+export const DEFAULT_MAX_ITERATIONS = 60;
+export const DEFAULT_FRICTION = 0.7;
+/** Largest change per Newton step: heave (m), rotations (rad), travel (m), grip field (–). */
+const MAX_STEP = [0.08, 0.08, 0.08, 0.05, 0.05, 0.05, 0.05, 0.5, 0.5, 0.5];
+/** Finite-difference steps for the Jacobian, per unknown. */
+const FD_STEP = 1e-7;
+/** Body attitude beyond which the vehicle is taken to have gone over (rad, about 75°). */
+const RUNAWAY_ANGLE_RAD = 1.3;
+const LINE_SEARCH_HALVINGS = 6;
+/** Give up when the residual has not halved over this many iterations (no equilibrium nearby). */
+const PROGRESS_WINDOW = 8;
+
+const N = STATE_SIZE;
+const _x = new Float64Array(N);
+const _xt = new Float64Array(N);
+const _r = new Float64Array(N);
+const _rt = new Float64Array(N);
+const _r0 = new Float64Array(N);
+const _rk = new Float64Array(N);
+const _J = new Float64Array(N * N);
+const _A = new Float64Array(N * N);
+const _rhs = new Float64Array(N);
+const _dx = new Float64Array(N);
+
+/** Assembles a vehicle on a terrain, ready to solve; computes its level-ground static loads. */
+export function buildModel(vehicle: Vehicle, terrain: Terrain, options: Partial<ModelOptions> = {}): VehicleModel {
+  const model = new VehicleModel(vehicle, terrain, options);
+  // Level-ground loads with the payload: a solve on flat ground. Before it, the statics estimate.
+  rigidStaticLoads(
+    model.weightN,
+    model.wheelbaseM,
+    model.wheelbaseM / 2 - model.cgTotalBody[0],
+    model.cgTotalBody[1],
+    vehicle.trackFrontM,
+    vehicle.trackRearM,
+    model.staticLoadN,
+  );
+  const field = model.field;
+  model.field = new TerrainField({ features: [] });
+  const level = solveEquilibrium(model, { xM: 0, yM: 0, headingRad: 0 });
+  if (level.status === 'converged') {
+    for (let i = 0; i < 4; i++) model.staticLoadN[i] = level.wheels[i].loadN;
+  }
+  model.field = field;
+  return model;
+}
+
+function maxAbs(r: Float64Array): number {
+  let m = 0;
+  for (let i = 0; i < r.length; i++) {
+    const v = Math.abs(r[i]);
+    if (!(v <= m)) m = v; // NaN propagates as "large"
+  }
+  return Number.isNaN(m) ? Infinity : m;
+}
+
+function norm2(r: Float64Array): number {
+  let s = 0;
+  for (let i = 0; i < r.length; i++) s += r[i] * r[i];
+  return Number.isFinite(s) ? s : Infinity;
+}
+
+/** Ride-height guess: the body laid on a plane fitted to the ground under the four wheels. */
+export function initialGuess(model: VehicleModel, x: Float64Array): void {
+  x.fill(0);
+  const c = Math.cos(model.headingRad);
+  const s = Math.sin(model.headingRad);
+  const h = [0, 0, 0, 0];
+  for (let i = 0; i < 4; i++) {
+    const ax = model.axles[i >> 1];
+    const yb = (i & 1) === 0 ? ax.trackM / 2 : -ax.trackM / 2;
+    const wx = model.poseX + c * ax.xM - s * yb;
+    const wy = model.poseY + s * ax.xM + c * yb;
+    h[i] = model.field.height(wx, wy);
+  }
+  const L = model.wheelbaseM;
+  const T = 0.5 * (model.axles[0].trackM + model.axles[1].trackM);
+  const mean = 0.25 * (h[0] + h[1] + h[2] + h[3]);
+  const slopeX = (h[0] + h[1] - h[2] - h[3]) / (2 * L);
+  const slopeY = (h[0] - h[1] + h[2] - h[3]) / (2 * T);
+  x[Q_Z] = mean;
+  x[Q_PITCH] = -Math.atan(slopeX);
+  x[Q_ROLL] = Math.atan(slopeY);
+  for (let a = 0; a < 2; a++) {
+    const ax = model.axles[a];
+    const sign = a === 0 ? 1 : -1;
+    const tL = h[2 * a] - (mean + sign * slopeX * (L / 2) + slopeY * (ax.trackM / 2));
+    const tR = h[2 * a + 1] - (mean + sign * slopeX * (L / 2) - slopeY * (ax.trackM / 2));
+    const clampT = (t: number): number => Math.max(-ax.droopM, Math.min(ax.bumpM, t));
+    if (ax.solid) {
+      x[Q_SUSP + 2 * a] = clampT(0.5 * (tL + tR));
+      x[Q_SUSP + 2 * a + 1] = Math.atan((clampT(tL) - clampT(tR)) / ax.trackM);
+    } else {
+      x[Q_SUSP + 2 * a] = clampT(tL);
+      x[Q_SUSP + 2 * a + 1] = clampT(tR);
+    }
+  }
+  const g = model.gravity;
+  const gn = Math.abs(g[2]) > 1e-9 ? Math.abs(g[2]) : 1e-9;
+  x[Q_VX] = -g[0] / gn;
+  x[Q_VY] = -g[1] / gn;
+}
+
+/** Jacobian of the scaled residual by forward differences over the tyres' linearisation at x. */
+function jacobian(model: VehicleModel, x: Float64Array, J: Float64Array): void {
+  model.residual(x, false, _r0);
+  for (let k = 0; k < N; k++) {
+    const keep = x[k];
+    x[k] = keep + FD_STEP;
+    model.residual(x, false, _rk);
+    x[k] = keep;
+    for (let i = 0; i < N; i++) J[i * N + k] = (_rk[i] - _r0[i]) / FD_STEP;
+  }
+}
+
+/** Damped least squares step: (JᵀJ + λ diag(JᵀJ) + λ·ε I) dx = −Jᵀ r. */
+function dampedStep(J: Float64Array, r: Float64Array, lambda: number, dx: Float64Array): boolean {
+  let trace = 0;
+  for (let i = 0; i < N; i++) {
+    for (let j = 0; j < N; j++) {
+      let s = 0;
+      for (let k = 0; k < N; k++) s += J[k * N + i] * J[k * N + j];
+      _A[i * N + j] = s;
+    }
+    trace += _A[i * N + i];
+    let g = 0;
+    for (let k = 0; k < N; k++) g += J[k * N + i] * r[k];
+    _rhs[i] = -g;
+  }
+  const floor = 1e-12 * (trace / N + 1e-30);
+  for (let i = 0; i < N; i++) _A[i * N + i] += lambda * _A[i * N + i] + lambda * floor + floor;
+  return solveLinearInPlace(N, _A, _rhs, dx, 0);
+}
+
+function totalLoadedSlices(model: VehicleModel): number {
+  let n = 0;
+  for (let i = 0; i < 4; i++) n += model.contacts[i].loadedSlices;
+  return n;
+}
+
+/**
+ * Gap between the lowest tyre and the ground beneath it (m); negative when some tyre is pressed in.
+ * Used only to drop a vehicle that has no contact at all onto the ground.
+ */
+function lowestGap(model: VehicleModel): number {
+  let gap = Infinity;
+  for (let i = 0; i < 4; i++) {
+    const ax = model.axles[i >> 1];
+    const w = model.wheelCentre;
+    const gz = w[3 * i + 2] - ax.radiusM - model.field.height(w[3 * i], w[3 * i + 1]);
+    if (gz < gap) gap = gz;
+  }
+  return gap;
+}
+
+/**
+ * Finds the static equilibrium of the vehicle standing at `pose` on the model's terrain (tilted
+ * as options.tilt says). Failure is a result, never an exception: see SolveResult.status.
+ * Tuning: raise maxIterations if status is 'not-converged' on a hard pose (vertical faces,
+ * a wheel balanced on an edge); a warm start from a nearby pose's `state` converges in 1–3 steps.
+ */
+export function solveEquilibrium(model: VehicleModel, pose: Pose, options: SolveOptions = {}): SolveResult {
+  const tilt = options.tilt ?? { angleRad: 0, downhillRad: 0 };
+  const tol = options.tolerance ?? DEFAULT_TOLERANCE;
+  const maxIt = options.maxIterations ?? DEFAULT_MAX_ITERATIONS;
+  const friction = options.friction ?? DEFAULT_FRICTION;
+  model.setPose(pose.xM, pose.yM, pose.headingRad);
+  model.setTilt(tilt.angleRad, tilt.downhillRad);
+  model.fullEvaluations = 0;
+  const x = _x;
+  if (options.warmStart && options.warmStart.length === N && options.warmStart.every(Number.isFinite)) x.set(options.warmStart);
+  else initialGuess(model, x);
+
+  if (!(model.gravity[2] < -1e-6 * GRAVITY_MPS2)) {
+    model.residual(x, true, _r);
+    return collect(model, x, _r, 'no-contact', 0, 'gravity does not press the vehicle onto the ground: tilted to 90° or beyond', friction);
+  }
+
+  model.residual(x, true, _r);
+  let n2 = norm2(_r);
+  let status: SolveStatus = 'not-converged';
+  let reason = '';
+  let it = 0;
+  let drops = 0;
+  let stalls = 0;
+  let checkpoint = n2;
+  let checkpointIt = 0;
+  for (; it <= maxIt; it++) {
+    if (maxAbs(_r) < tol) {
+      status = 'converged';
+      reason = 'equilibrium found';
+      break;
+    }
+    if (it === maxIt) {
+      reason = `no equilibrium within ${maxIt} iterations (scaled residual ${maxAbs(_r).toExponential(2)}); raise maxIterations or check the pose`;
+      break;
+    }
+    if (totalLoadedSlices(model) === 0) {
+      // Nothing touches: drop the vehicle onto the ground and try again.
+      const gap = lowestGap(model);
+      if (drops++ > 8 || !Number.isFinite(gap)) {
+        status = 'no-contact';
+        reason = 'no tyre reaches the ground';
+        break;
+      }
+      x[Q_Z] -= gap + 0.005;
+      model.residual(x, true, _r);
+      n2 = norm2(_r);
+      continue;
+    }
+    jacobian(model, x, _J);
+    _A.set(_J);
+    for (let i = 0; i < N; i++) _rhs[i] = -_r[i];
+    let ok = solveLinearInPlace(N, _A, _rhs, _dx);
+    if (!ok || !_dx.every(Number.isFinite)) ok = dampedStep(_J, _r, 1e-3, _dx);
+    if (!ok) {
+      reason = 'the equilibrium equations are singular at this pose';
+      break;
+    }
+    // Step limit: scale the whole step so no unknown moves more than its cap.
+    let scale = 1;
+    for (let k = 0; k < N; k++) {
+      const a = Math.abs(_dx[k]);
+      if (a * scale > MAX_STEP[k]) scale = MAX_STEP[k] / a;
+    }
+    let alpha = scale;
+    let accepted = false;
+    for (let ls = 0; ls < LINE_SEARCH_HALVINGS; ls++) {
+      for (let k = 0; k < N; k++) _xt[k] = x[k] + alpha * _dx[k];
+      model.residual(_xt, true, _rt);
+      const nt = norm2(_rt);
+      if (nt <= (1 - 1e-4 * alpha) * n2) {
+        accepted = true;
+        n2 = nt;
+        break;
+      }
+      alpha *= 0.5;
+    }
+    if (!accepted) {
+      // No decrease along the Newton direction: take a damped least-squares step instead.
+      let lambda = 1e-2;
+      for (let tries = 0; tries < 6 && !accepted; tries++, lambda *= 10) {
+        if (!dampedStep(_J, _r, lambda, _dx)) continue;
+        let s = 1;
+        for (let k = 0; k < N; k++) {
+          const a = Math.abs(_dx[k]);
+          if (a * s > MAX_STEP[k]) s = MAX_STEP[k] / a;
+        }
+        for (let k = 0; k < N; k++) _xt[k] = x[k] + s * _dx[k];
+        model.residual(_xt, true, _rt);
+        const nt = norm2(_rt);
+        if (nt < n2) {
+          accepted = true;
+          n2 = nt;
+        }
+      }
+    }
+    if (!accepted) {
+      stalls++;
+      // Keep the model's buffers on x itself.
+      model.residual(x, true, _r);
+      if (stalls >= 2) {
+        reason = `the solver stalled at scaled residual ${maxAbs(_r).toExponential(2)}`;
+        break;
+      }
+      continue;
+    }
+    stalls = 0;
+    x.set(_xt);
+    _r.set(_rt);
+    if (n2 < 0.25 * checkpoint) {
+      checkpoint = n2;
+      checkpointIt = it;
+    } else if (it - checkpointIt >= PROGRESS_WINDOW) {
+      reason = `no equilibrium nearby: the residual stopped falling (scaled ${maxAbs(_r).toExponential(2)})`;
+      break;
+    }
+    if (Math.abs(x[Q_ROLL]) > RUNAWAY_ANGLE_RAD || Math.abs(x[Q_PITCH]) > RUNAWAY_ANGLE_RAD) {
+      status = 'tipped';
+      reason = 'the body rolled or pitched past 75° looking for support: it goes over';
+      break;
+    }
+  }
+  return collect(model, x, _r, status, it, reason, friction);
+}
+
+const _pts: number[] = [];
+const _ptWheel: number[] = [];
+
+/** Builds the plain result object from state x (model buffers must hold x's full evaluation). */
+function collect(
+  model: VehicleModel,
+  x: Float64Array,
+  r: Float64Array,
+  statusIn: SolveStatus,
+  iterations: number,
+  reasonIn: string,
+  friction: number,
+): SolveResult {
+  let status = statusIn;
+  let reason = reasonIn;
+  const ns = model.layout.slices;
+  const g = model.gravity;
+  const G = Math.hypot(g[0], g[1], g[2]);
+  const up: [number, number, number] = [-g[0] / G, -g[1] / G, -g[2] / G];
+  const W = model.weightN;
+  _pts.length = 0;
+  _ptWheel.length = 0;
+  const wheels: WheelResult[] = [];
+  let totalLoad = 0;
+  for (let i = 0; i < 4; i++) {
+    const ax = model.axles[i >> 1];
+    // Per wheel: normal load (sum over slices), the ground force (springs + correction), its
+    // normal direction, the centre of pressure and the mean deflection.
+    let load = 0, fx = 0, fy = 0, fz = 0, nx = 0, ny = 0, nz = 0, px = 0, py = 0, pz = 0, dsum = 0;
+    for (let j = 0; j < ns; j++) {
+      const k3 = (i * ns + j) * 3;
+      const Nj = model.sliceLoad[i * ns + j];
+      fx += model.sliceForce[k3] + model.sliceGrip[k3];
+      fy += model.sliceForce[k3 + 1] + model.sliceGrip[k3 + 1];
+      fz += model.sliceForce[k3 + 2] + model.sliceGrip[k3 + 2];
+      if (Nj > 0) {
+        load += Nj;
+        nx += Nj * model.sliceNormal[k3]; ny += Nj * model.sliceNormal[k3 + 1]; nz += Nj * model.sliceNormal[k3 + 2];
+        px += Nj * model.slicePoint[k3]; py += Nj * model.slicePoint[k3 + 1]; pz += Nj * model.slicePoint[k3 + 2];
+        dsum += Nj * model.contacts[i].deflection[j];
+        _pts.push(model.slicePoint[k3], model.slicePoint[k3 + 1], model.slicePoint[k3 + 2]);
+        _ptWheel.push(i);
+      }
+    }
+    const nl = Math.hypot(nx, ny, nz) || 1;
+    nx /= nl; ny /= nl; nz /= nl;
+    const fn = fx * nx + fy * ny + fz * nz;
+    const tx = fx - fn * nx, ty = fy - fn * ny, tz = fz - fn * nz;
+    const wsum = load;
+    totalLoad += load;
+    const lifted = model.contacts[i].loadedSlices === 0 || !(load > 0);
+    const c = model.wheelCentre;
+    const centre: [number, number, number] = [c[3 * i], c[3 * i + 1], c[3 * i + 2]];
+    const axis: [number, number, number] = [model.wheelAxis[3 * i], model.wheelAxis[3 * i + 1], model.wheelAxis[3 * i + 2]];
+    const tangential = Math.hypot(tx, ty, tz);
+    const t = model.travel[i];
+    const avail = t >= 0 ? ax.bumpM : ax.droopM;
+    wheels.push({
+      name: WHEEL_NAMES[i],
+      loadN: lifted ? 0 : load,
+      verticalLoadN: lifted ? 0 : fx * up[0] + fy * up[1] + fz * up[2],
+      loadShare: lifted ? 0 : load / model.staticLoadN[i],
+      staticLoadN: model.staticLoadN[i],
+      lifted,
+      contactPointWorld: lifted ? [centre[0], centre[1], centre[2] - ax.radiusM] : [px / wsum, py / wsum, pz / wsum],
+      contactNormalWorld: lifted ? [0, 0, 1] : [nx, ny, nz],
+      centreWorld: centre,
+      axisWorld: axis,
+      travelM: t,
+      travelFraction: avail > 0 ? t / avail : t === 0 ? 0 : Math.sign(t),
+      tyreDeflectionM: lifted ? 0 : dsum / wsum,
+      tangentialN: lifted ? 0 : tangential,
+      frictionDemand: lifted ? 0 : tangential / load,
+    });
+  }
+
+  // Total CG in the terrain frame.
+  const R = model.rot;
+  const cs = model.cgSprungBody;
+  let cgx = model.sprungMassKg * (model.poseX + R[0] * cs[0] + R[1] * cs[1] + R[2] * cs[2]);
+  let cgy = model.sprungMassKg * (model.poseY + R[3] * cs[0] + R[4] * cs[1] + R[5] * cs[2]);
+  let cgz = model.sprungMassKg * (x[Q_Z] + R[6] * cs[0] + R[7] * cs[1] + R[8] * cs[2]);
+  for (let i = 0; i < 4; i++) {
+    const mu = model.axles[i >> 1].unsprungPerWheelKg;
+    cgx += mu * model.wheelCentre[3 * i];
+    cgy += mu * model.wheelCentre[3 * i + 1];
+    cgz += mu * model.wheelCentre[3 * i + 2];
+  }
+  const M = model.totalMassKg;
+  const cg: [number, number, number] = [cgx / M, cgy / M, cgz / M];
+
+  const npts = _ptWheel.length;
+  const force = [g[0] * M, g[1] * M, g[2] * M];
+  const mg = stabilityMargins(_pts, npts, cg, force);
+  const edgeWheels: WheelName[] = [];
+  if (mg.weakestEdge >= 0 && mg.hull.length >= 2) {
+    const a = _ptWheel[mg.hull[mg.weakestEdge]];
+    const b = _ptWheel[mg.hull[(mg.weakestEdge + 1) % mg.hull.length]];
+    const lo = Math.min(a, b);
+    const hi = Math.max(a, b);
+    edgeWheels.push(WHEEL_NAMES[lo]);
+    if (hi !== lo) edgeWheels.push(WHEEL_NAMES[hi]);
+  }
+  const finite = (v: number): number => (Number.isFinite(v) ? v : 0);
+  const margins: StabilityMargins = {
+    forceAngleRad: finite(mg.forceAngleRad),
+    forceAngleMeasure: finite(mg.forceAngleMeasure),
+    forceAngleMeasurePerWeightM: finite(mg.forceAngleMeasure / W),
+    energyM: finite(mg.energyM),
+    staticM: finite(mg.staticM),
+    weakestEdge: mg.weakestEdge,
+    weakestEdgeWheels: edgeWheels,
+  };
+
+  if (status !== 'converged') {
+    if (status === 'not-converged' && totalLoad === 0) {
+      status = 'no-contact';
+      reason = reason || 'no tyre reaches the ground';
+    } else if (status === 'not-converged' && (npts === 0 || margins.forceAngleRad < 0)) {
+      status = 'tipped';
+      reason = `${reason}; the plumb line from the CG falls outside the support of the loaded tyres`;
+    }
+  }
+
+  // Attitude relative to the terrain frame (the state) and to true level.
+  const yUp = R[1] * up[0] + R[4] * up[1] + R[7] * up[2];
+  const zUp = R[2] * up[0] + R[5] * up[1] + R[8] * up[2];
+  const xUp = R[0] * up[0] + R[3] * up[1] + R[6] * up[2];
+  let groundMean = 0;
+  {
+    const c = Math.cos(model.headingRad);
+    const s = Math.sin(model.headingRad);
+    for (let i = 0; i < 4; i++) {
+      const ax = model.axles[i >> 1];
+      const yb = (i & 1) === 0 ? ax.trackM / 2 : -ax.trackM / 2;
+      groundMean += 0.25 * model.field.height(model.poseX + c * ax.xM - s * yb, model.poseY + s * ax.xM + c * yb);
+    }
+  }
+
+  let resF = 0;
+  let resM = 0;
+  for (let k = 0; k < 3; k++) resF = Math.max(resF, Math.abs(r[k]) * W);
+  for (let k = 3; k < 6; k++) resM = Math.max(resM, Math.abs(r[k]) * W * model.wheelbaseM);
+  for (let a = 0; a < 2; a++) {
+    const ax = model.axles[a];
+    if (ax.solid) {
+      resF = Math.max(resF, Math.abs(r[R_SUSP + 2 * a]) * W);
+      resM = Math.max(resM, Math.abs(r[R_SUSP + 2 * a + 1]) * W * ax.trackM);
+    } else {
+      resF = Math.max(resF, Math.abs(r[R_SUSP + 2 * a]) * W, Math.abs(r[R_SUSP + 2 * a + 1]) * W);
+    }
+  }
+
+  const poly: [number, number, number][] = mg.hull.map((h) => [_pts[3 * h], _pts[3 * h + 1], _pts[3 * h + 2]]);
+  return {
+    status,
+    reason,
+    iterations,
+    evaluations: model.fullEvaluations,
+    residualN: finite(resF),
+    residualNm: finite(resM),
+    wheels: wheels as unknown as SolveResult['wheels'],
+    body: {
+      heaveM: finite(x[Q_Z] - groundMean),
+      rollRad: finite(x[Q_ROLL]),
+      pitchRad: finite(x[Q_PITCH]),
+      rollToLevelRad: finite(Math.atan2(yUp, zUp)),
+      pitchToLevelRad: finite(-Math.asin(Math.max(-1, Math.min(1, xUp)))),
+      cgWorld: cg,
+      plumbPointWorld: mg.plumb,
+    },
+    margins,
+    supportPolygonWorld: poly,
+    gravityDirWorld: [-up[0], -up[1], -up[2]],
+    weightN: W,
+    state: Float64Array.from(x),
+  };
+}
