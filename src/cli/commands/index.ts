@@ -4,9 +4,11 @@
  */
 import type { CommandSpec } from '../command';
 import { checkCommand } from './check';
+import { poseCommand } from './pose';
+import { tiltCommand } from './tilt';
 
 /** Every command, in the order `plumbline --help` lists them. */
-export const COMMANDS: readonly CommandSpec[] = [checkCommand];
+export const COMMANDS: readonly CommandSpec[] = [checkCommand, poseCommand, tiltCommand];
 
 export function findCommand(name: string): CommandSpec | undefined {
   return COMMANDS.find((c) => c.name === name);
