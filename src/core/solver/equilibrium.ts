@@ -43,9 +43,9 @@ const MAX_STEP = [0.08, 0.08, 0.08, 0.05, 0.05, 0.05, 0.05, 0.5, 0.5, 0.5];
 const FD_STEP = 1e-7;
 /** Body attitude beyond which the vehicle is taken to have gone over (rad, about 75°). */
 const RUNAWAY_ANGLE_RAD = 1.3;
-const LINE_SEARCH_HALVINGS = 6;
+const LINE_SEARCH_HALVINGS = 4;
 /** Give up when the residual has not halved over this many iterations (no equilibrium nearby). */
-const PROGRESS_WINDOW = 8;
+const PROGRESS_WINDOW = 6;
 
 const N = STATE_SIZE;
 const _x = new Float64Array(N);
@@ -276,7 +276,7 @@ export function solveEquilibrium(model: VehicleModel, pose: Pose, options: Solve
     if (!accepted) {
       // No decrease along the Newton direction: take a damped least-squares step instead.
       let lambda = 1e-2;
-      for (let tries = 0; tries < 6 && !accepted; tries++, lambda *= 10) {
+      for (let tries = 0; tries < 3 && !accepted; tries++, lambda *= 30) {
         if (!dampedStep(_J, _r, lambda, _dx)) continue;
         let s = 1;
         for (let k = 0; k < N; k++) {

@@ -135,6 +135,7 @@ export class VehicleModel {
   private readonly featureCounts = new Int32Array(4);
   /** Linearisation of the slice forces at the last full evaluation. */
   private readonly linCentre: Float64Array;
+  private readonly linAxis = new Float64Array(12);
   /** Slice forces, centres and points in use by the current evaluation. */
   readonly sliceForce: Float64Array;
   readonly sliceCentre: Float64Array;
@@ -368,6 +369,9 @@ export class VehicleModel {
           this.field, list, this.featureCounts[i], this.layout, ax.radiusM, ax.widthM, this.rayRateNPerM[i],
           cx, cy, cz, a[3 * i], a[3 * i + 1], a[3 * i + 2], c,
         );
+        this.linAxis[3 * i] = a[3 * i];
+        this.linAxis[3 * i + 1] = a[3 * i + 1];
+        this.linAxis[3 * i + 2] = a[3 * i + 2];
         for (let k = 0; k < ns * 3; k++) {
           this.linCentre[base + k] = c.centre[k];
           this.sliceCentre[base + k] = c.centre[k];
@@ -376,26 +380,36 @@ export class VehicleModel {
           this.sliceNormal[base + k] = c.normal[k];
         }
       } else {
+        // The spring fan turns with the wheel plane: a camber change ω = a0 × a (small) turns each
+        // slice force and its contact point about the slice centre; translations go through K.
+        const a0x = this.linAxis[3 * i], a0y = this.linAxis[3 * i + 1], a0z = this.linAxis[3 * i + 2];
+        const ax1 = a[3 * i], ay1 = a[3 * i + 1], az1 = a[3 * i + 2];
+        const wx = a0y * az1 - a0z * ay1;
+        const wy = a0z * ax1 - a0x * az1;
+        const wz = a0x * ay1 - a0y * ax1;
         for (let j = 0; j < ns; j++) {
           const off = this.layout.sliceFraction[j] * ax.widthM;
           const k3 = base + 3 * j;
-          const sx = cx + off * a[3 * i];
-          const sy = cy + off * a[3 * i + 1];
-          const sz = cz + off * a[3 * i + 2];
-          const dx = sx - this.linCentre[k3];
-          const dy = sy - this.linCentre[k3 + 1];
-          const dz = sz - this.linCentre[k3 + 2];
+          const sx = cx + off * ax1;
+          const sy = cy + off * ay1;
+          const sz = cz + off * az1;
+          const c0x = this.linCentre[k3], c0y = this.linCentre[k3 + 1], c0z = this.linCentre[k3 + 2];
+          const dx = sx - c0x;
+          const dy = sy - c0y;
+          const dz = sz - c0z;
           const K = c.stiffness;
           const kb = 9 * j;
+          const f0x = c.force[3 * j], f0y = c.force[3 * j + 1], f0z = c.force[3 * j + 2];
           this.sliceCentre[k3] = sx;
           this.sliceCentre[k3 + 1] = sy;
           this.sliceCentre[k3 + 2] = sz;
-          this.sliceForce[k3] = c.force[3 * j] + K[kb] * dx + K[kb + 1] * dy + K[kb + 2] * dz;
-          this.sliceForce[k3 + 1] = c.force[3 * j + 1] + K[kb + 3] * dx + K[kb + 4] * dy + K[kb + 5] * dz;
-          this.sliceForce[k3 + 2] = c.force[3 * j + 2] + K[kb + 6] * dx + K[kb + 7] * dy + K[kb + 8] * dz;
-          this.slicePoint[k3] = c.point[3 * j] + dx;
-          this.slicePoint[k3 + 1] = c.point[3 * j + 1] + dy;
-          this.slicePoint[k3 + 2] = c.point[3 * j + 2] + dz;
+          this.sliceForce[k3] = f0x + (wy * f0z - wz * f0y) + K[kb] * dx + K[kb + 1] * dy + K[kb + 2] * dz;
+          this.sliceForce[k3 + 1] = f0y + (wz * f0x - wx * f0z) + K[kb + 3] * dx + K[kb + 4] * dy + K[kb + 5] * dz;
+          this.sliceForce[k3 + 2] = f0z + (wx * f0y - wy * f0x) + K[kb + 6] * dx + K[kb + 7] * dy + K[kb + 8] * dz;
+          const rx = c.point[3 * j] - c0x, ry = c.point[3 * j + 1] - c0y, rz = c.point[3 * j + 2] - c0z;
+          this.slicePoint[k3] = sx + rx + (wy * rz - wz * ry);
+          this.slicePoint[k3 + 1] = sy + ry + (wz * rx - wx * rz);
+          this.slicePoint[k3 + 2] = sz + rz + (wx * ry - wy * rx);
         }
       }
     }

@@ -11,6 +11,8 @@ import { DEFAULT_FRICTION, solveEquilibrium } from './equilibrium';
 import type { VehicleModel } from './model';
 
 const DEG = Math.PI / 180;
+/** Warm-started sweep steps converge in a few iterations where an equilibrium exists; more means none is near. */
+const SWEEP_MAX_ITERATIONS = 10;
 
 function maxDemand(r: SolveResult): number {
   let d = 0;
@@ -48,7 +50,7 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
   const downhillRad = opts.downhillRad;
   let evaluations = 0;
   const solveAt = (angleRad: number, warm: Float64Array | null): SolveResult => {
-    const r = solveEquilibrium(model, pose, { tilt: { angleRad, downhillRad }, friction, warmStart: warm });
+    const r = solveEquilibrium(model, pose, { tilt: { angleRad, downhillRad }, friction, warmStart: warm, maxIterations: warm ? SWEEP_MAX_ITERATIONS : undefined });
     evaluations += r.evaluations;
     return r;
   };

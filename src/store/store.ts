@@ -1,0 +1,209 @@
+/**
+ * The app's one store (zustand/vanilla, usable without React): the scenario in SI, the display
+ * units, the latest solve and a few actions that call the pure core. Nothing here does mechanics.
+ */
+import { createStore, type StoreApi } from 'zustand/vanilla';
+import {
+  buildModel,
+  parseScenario,
+  solveEquilibrium,
+  tiltSweep,
+  type Pose,
+  type Scenario,
+  type ScenarioError,
+  type SolveResult,
+  type Tilt,
+  type TiltSweepResult,
+  type UnitSystem,
+  type VehicleModel,
+} from '../core';
+
+/** Most edits kept for undo. */
+export const HISTORY_LIMIT = 100;
+
+export interface SweepState {
+  /** The scenario the sweep was run for (stale when it differs from the current one). */
+  readonly scenario: Scenario;
+  readonly result: TiltSweepResult;
+  readonly wallMs: number;
+}
+
+export interface PlumbState {
+  readonly scenario: Scenario;
+  /** Display units only; the scenario stays SI and is never rounded for display. */
+  readonly units: UnitSystem;
+  readonly result: SolveResult;
+  /** The core model the result was solved on (read-only for views: geometry, masses). */
+  readonly model: VehicleModel;
+  /** Wall time of the last solve (ms). */
+  readonly solveMs: number;
+  /** Errors of the last import that failed validation (the scenario was kept); null when none. */
+  readonly importErrors: readonly ScenarioError[] | null;
+  readonly importWarnings: readonly string[];
+  readonly sweep: SweepState | null;
+  readonly past: readonly Scenario[];
+  readonly future: readonly Scenario[];
+
+  /** Move and/or turn the vehicle. record=false for the steps of a drag (one undo step per drag: call commitDrag at the end). */
+  setPose(pose: Partial<Pose>, record?: boolean): void;
+  /** Record the pose before a drag so the whole drag undoes in one step. */
+  beginDrag(): void;
+  endDrag(): void;
+  setTilt(tilt: Partial<Tilt>): void;
+  setUnits(units: UnitSystem): void;
+  /** Replace the whole scenario (an edit; undoable). */
+  replaceScenario(scenario: Scenario): void;
+  /** Validate and load a scenario file's data; on failure keep the current scenario and set importErrors. */
+  importData(data: unknown): boolean;
+  importText(text: string): boolean;
+  clearImportErrors(): void;
+  /** Tilt sweep about the current downhill direction, from level. */
+  runTiltSweep(): TiltSweepResult;
+  undo(): void;
+  redo(): void;
+}
+
+export type PlumbStore = StoreApi<PlumbState>;
+
+/** Holds the vehicle model for the current vehicle and terrain; rebuilt only when they change. */
+interface ModelCache {
+  model: VehicleModel | null;
+  vehicle: Scenario['vehicle'] | null;
+  terrain: Scenario['terrain'] | null;
+}
+
+function modelFor(cache: ModelCache, s: Scenario): VehicleModel {
+  if (cache.model && cache.vehicle === s.vehicle) {
+    if (cache.terrain !== s.terrain) {
+      cache.model.setTerrain(s.terrain);
+      cache.terrain = s.terrain;
+    }
+    return cache.model;
+  }
+  cache.model = buildModel(s.vehicle, s.terrain);
+  cache.vehicle = s.vehicle;
+  cache.terrain = s.terrain;
+  return cache.model;
+}
+
+const now = (): number => (typeof performance !== 'undefined' ? performance.now() : Date.now());
+
+export function createPlumbStore(initial: Scenario, units: UnitSystem = initial.units): PlumbStore {
+  const cache: ModelCache = { model: null, vehicle: null, terrain: null };
+  let dragStart: Scenario | null = null;
+
+  /** Solve s, warm-started from prev when the vehicle is the same. */
+  const solve = (s: Scenario, prev: SolveResult | null, prevScenario: Scenario | null): { result: SolveResult; solveMs: number } => {
+    const t0 = now();
+    const sameVehicle = prevScenario !== null && prevScenario.vehicle === s.vehicle;
+    const model = modelFor(cache, s);
+    const warm = sameVehicle && prev && prev.status === 'converged' ? prev.state : null;
+    let result = solveEquilibrium(model, s.pose, { tilt: s.tilt, friction: s.friction, warmStart: warm });
+    // A warm start from a far state can end elsewhere; a cold start is the reference.
+    if (warm && result.status !== 'converged') {
+      result = solveEquilibrium(model, s.pose, { tilt: s.tilt, friction: s.friction });
+    }
+    return { result, solveMs: now() - t0 };
+  };
+
+  const first = solve(initial, null, null);
+
+  return createStore<PlumbState>()((set, get) => {
+    /** Apply a new scenario: solve and set; record pushes the old one on the undo stack. */
+    const apply = (next: Scenario, record: boolean): void => {
+      const st = get();
+      if (next === st.scenario) return;
+      const { result, solveMs } = solve(next, st.result, st.scenario);
+      const past = record ? [...st.past, st.scenario].slice(-HISTORY_LIMIT) : st.past;
+      set({ scenario: next, result, solveMs, past, future: record ? [] : st.future, model: cache.model as VehicleModel });
+    };
+
+    return {
+      scenario: initial,
+      units,
+      result: first.result,
+      model: cache.model as VehicleModel,
+      solveMs: first.solveMs,
+      importErrors: null,
+      importWarnings: [],
+      sweep: null,
+      past: [],
+      future: [],
+
+      setPose(pose, record = true) {
+        const s = get().scenario;
+        const p = { ...s.pose, ...pose };
+        if (p.xM === s.pose.xM && p.yM === s.pose.yM && p.headingRad === s.pose.headingRad) return;
+        apply({ ...s, pose: p }, record && dragStart === null);
+      },
+      beginDrag() {
+        dragStart = get().scenario;
+      },
+      endDrag() {
+        const start = dragStart;
+        dragStart = null;
+        const st = get();
+        if (start && start !== st.scenario) {
+          set({ past: [...st.past, start].slice(-HISTORY_LIMIT), future: [] });
+        }
+      },
+      setTilt(tilt) {
+        const s = get().scenario;
+        const t = { ...s.tilt, ...tilt };
+        if (t.angleRad === s.tilt.angleRad && t.downhillRad === s.tilt.downhillRad) return;
+        apply({ ...s, tilt: t }, true);
+      },
+      setUnits(u) {
+        set({ units: u });
+      },
+      replaceScenario(scenario) {
+        apply(scenario, true);
+      },
+      importData(data) {
+        const parsed = parseScenario(data);
+        if (!parsed.ok) {
+          set({ importErrors: parsed.errors, importWarnings: [] });
+          return false;
+        }
+        apply(parsed.scenario, true);
+        set({ importErrors: null, importWarnings: parsed.warnings, sweep: null });
+        return true;
+      },
+      importText(text) {
+        let data: unknown;
+        try {
+          data = JSON.parse(text);
+        } catch (e) {
+          set({ importErrors: [{ path: '(file)', message: `not valid JSON: ${(e as Error).message}` }], importWarnings: [] });
+          return false;
+        }
+        return get().importData(data);
+      },
+      clearImportErrors() {
+        set({ importErrors: null });
+      },
+      runTiltSweep() {
+        const s = get().scenario;
+        const t0 = now();
+        const model = modelFor(cache, s);
+        const result = tiltSweep(model, s.pose, { downhillRad: s.tilt.downhillRad, friction: s.friction });
+        set({ sweep: { scenario: s, result, wallMs: now() - t0 } });
+        return result;
+      },
+      undo() {
+        const st = get();
+        if (st.past.length === 0) return;
+        const prev = st.past[st.past.length - 1];
+        const { result, solveMs } = solve(prev, st.result, st.scenario);
+        set({ scenario: prev, result, solveMs, model: cache.model as VehicleModel, past: st.past.slice(0, -1), future: [st.scenario, ...st.future] });
+      },
+      redo() {
+        const st = get();
+        if (st.future.length === 0) return;
+        const next = st.future[0];
+        const { result, solveMs } = solve(next, st.result, st.scenario);
+        set({ scenario: next, result, solveMs, model: cache.model as VehicleModel, past: [...st.past, st.scenario].slice(-HISTORY_LIMIT), future: st.future.slice(1) });
+      },
+    };
+  });
+}
