@@ -41,11 +41,28 @@ export const DEFAULT_FRICTION = 0.7;
 const MAX_STEP = [0.08, 0.08, 0.08, 0.05, 0.05, 0.05, 0.05, 0.5, 0.5, 0.5];
 /** Finite-difference steps for the Jacobian, per unknown. */
 const FD_STEP = 1e-7;
+/** Finite-difference step of the full-equation Jacobian (the ray searches resolve to 1e-10 m). */
+const FULL_FD_STEP = 1e-7;
 /** Body attitude beyond which the vehicle is taken to have gone over (rad, about 75°). */
 const RUNAWAY_ANGLE_RAD = 1.3;
 const LINE_SEARCH_HALVINGS = 4;
+const FULL_LINE_SEARCH_HALVINGS = 20;
+/** How far past touching a lifted tyre may be driven by one Newton step (m). */
+const CONTACT_OVERSHOOT_M = 0.002;
+/** The contact step limit never shortens a step below this fraction. */
+const MIN_CONTACT_STEP = 0.02;
+/** Continuation for hard cold starts: steps from untilted, softened tyres to the real pose. */
+const CONTINUATION_STEPS = 4;
+/** Tyre rate the continuation starts from (N/m): soft enough that contact changes are gentle. */
+const SOFT_TYRE_NPERM = 2e5;
 /** Give up when the residual has not halved over this many iterations (no equilibrium nearby). */
 const PROGRESS_WINDOW = 6;
+
+/** Test hook: called with each iteration's scaled residual. */
+export let DEBUG_TRACE: ((iteration: number, residual: number, fullJacobian: boolean) => void) | null = null;
+export function setSolverTrace(f: ((iteration: number, residual: number, fullJacobian: boolean) => void) | null): void {
+  DEBUG_TRACE = f;
+}
 
 const N = STATE_SIZE;
 const _x = new Float64Array(N);
@@ -58,6 +75,7 @@ const _J = new Float64Array(N * N);
 const _A = new Float64Array(N * N);
 const _rhs = new Float64Array(N);
 const _dx = new Float64Array(N);
+const _keep = new Float64Array(N);
 
 /** Assembles a vehicle on a terrain, ready to solve; computes its level-ground static loads. */
 export function buildModel(vehicle: Vehicle, terrain: Terrain, options: Partial<ModelOptions> = {}): VehicleModel {
@@ -150,6 +168,62 @@ function jacobian(model: VehicleModel, x: Float64Array, J: Float64Array): void {
   }
 }
 
+const _gap = new Float64Array(4);
+const _travel = new Float64Array(4);
+
+/**
+ * Newton's linear model knows nothing of a contact or a stop that is not engaged yet: a step can
+ * drive a lifted tyre deep into the ground or a corner far past its droop or bump limit. Shorten
+ * the step so that nothing goes more than a little past where it engages; the next iteration
+ * then sees it. Leaves the model's kinematics at x.
+ */
+function contactStepLimit(model: VehicleModel, x: Float64Array, scale: number): number {
+  for (let i = 0; i < 4; i++) {
+    _travel[i] = model.travel[i];
+    if (model.contacts[i].loadedSlices > 0) {
+      _gap[i] = NaN;
+      continue;
+    }
+    const w = model.wheelCentre;
+    _gap[i] = w[3 * i + 2] - model.axles[i >> 1].radiusM - model.field.height(w[3 * i], w[3 * i + 1]);
+  }
+  for (let k = 0; k < N; k++) _xt[k] = x[k] + scale * _dx[k];
+  model.kinematics(_xt);
+  let s = scale;
+  const limit = (before: number, after: number, edge: number, allowance: number): void => {
+    // Before: on the free side of `edge` (before > edge); after: past it by more than the allowance.
+    if (before > edge && after < edge - allowance) {
+      const f = (before - edge + allowance) / (before - after);
+      if (f * scale < s) s = Math.max(f * scale, MIN_CONTACT_STEP * scale);
+    }
+  };
+  for (let i = 0; i < 4; i++) {
+    const ax = model.axles[i >> 1];
+    if (!Number.isNaN(_gap[i])) {
+      const w = model.wheelCentre;
+      const after = w[3 * i + 2] - ax.radiusM - model.field.height(w[3 * i], w[3 * i + 1]);
+      limit(_gap[i], after, 0, CONTACT_OVERSHOOT_M);
+    }
+    limit(_travel[i], model.travel[i], -ax.droopM, CONTACT_OVERSHOOT_M);
+    limit(-_travel[i], -model.travel[i], -ax.bumpM, CONTACT_OVERSHOOT_M);
+  }
+  model.kinematics(x);
+  return s;
+}
+
+/** Jacobian by forward differences of the full equations (ray casts); leaves the model evaluated at x. */
+function fullJacobianFd(model: VehicleModel, x: Float64Array, J: Float64Array): void {
+  model.residual(x, true, _r0);
+  for (let k = 0; k < N; k++) {
+    const keep = x[k];
+    x[k] = keep + FULL_FD_STEP;
+    model.residual(x, true, _rk);
+    x[k] = keep;
+    for (let i = 0; i < N; i++) J[i * N + k] = (_rk[i] - _r0[i]) / FULL_FD_STEP;
+  }
+  model.residual(x, true, _r0);
+}
+
 /** Damped least squares step: (JᵀJ + λ diag(JᵀJ) + λ·ε I) dx = −Jᵀ r. */
 function dampedStep(J: Float64Array, r: Float64Array, lambda: number, dx: Float64Array): boolean {
   let trace = 0;
@@ -205,7 +279,8 @@ export function solveEquilibrium(model: VehicleModel, pose: Pose, options: Solve
   model.setTilt(tilt.angleRad, tilt.downhillRad);
   model.fullEvaluations = 0;
   const x = _x;
-  if (options.warmStart && options.warmStart.length === N && options.warmStart.every(Number.isFinite)) x.set(options.warmStart);
+  const warm = !!options.warmStart && options.warmStart.length === N && options.warmStart.every(Number.isFinite);
+  if (warm) x.set(options.warmStart as Float64Array);
   else initialGuess(model, x);
 
   if (!(model.gravity[2] < -1e-6 * GRAVITY_MPS2)) {
@@ -213,6 +288,53 @@ export function solveEquilibrium(model: VehicleModel, pose: Pose, options: Solve
     return collect(model, x, _r, 'no-contact', 0, 'gravity does not press the vehicle onto the ground: tilted to 90° or beyond', friction);
   }
 
+  let out = newton(model, x, tol, maxIt);
+  if (out.status !== 'converged' && !warm) {
+    // A hard cold start (stiff tyres, a big tilt): ease into it. Start untilted on softened tyres
+    // and step to the real tilt and stiffness, warm-starting each step; keep the first answer if
+    // that fails too (a real tip stays a tip).
+    _keep.set(x);
+    const first = out;
+    let kmax = 0;
+    for (const t of [model.vehicle.tyreFront, model.vehicle.tyreRear]) kmax = Math.max(kmax, t.stiffnessNPerM);
+    const s0 = Math.min(1, SOFT_TYRE_NPERM / kmax);
+    let iterations = first.iterations;
+    let ok = true;
+    model.setTilt(0, tilt.downhillRad);
+    initialGuess(model, x);
+    for (let k = 0; k <= CONTINUATION_STEPS; k++) {
+      const lambda = k / CONTINUATION_STEPS;
+      model.tyreRateScale = Math.pow(s0, 1 - lambda);
+      model.setTilt(lambda * tilt.angleRad, tilt.downhillRad);
+      const o = newton(model, x, k === CONTINUATION_STEPS ? tol : Math.max(tol, 1e-6), maxIt);
+      iterations += o.iterations;
+      if (o.status !== 'converged') {
+        ok = false;
+        break;
+      }
+    }
+    model.tyreRateScale = 1;
+    model.setTilt(tilt.angleRad, tilt.downhillRad);
+    if (ok) {
+      model.residual(x, true, _r);
+      out = { status: 'converged', reason: 'equilibrium found (eased in from the untilted pose)', iterations };
+    } else {
+      x.set(_keep);
+      model.residual(x, true, _r);
+      out = { ...first, iterations };
+    }
+  }
+  return collect(model, x, _r, out.status, out.iterations, out.reason, friction);
+}
+
+interface NewtonOutcome {
+  status: SolveStatus;
+  reason: string;
+  iterations: number;
+}
+
+/** Newton iterations from x (updated in place); on return the model's buffers hold x's full evaluation and _r its residual. */
+function newton(model: VehicleModel, x: Float64Array, tol: number, maxIt: number): NewtonOutcome {
   model.residual(x, true, _r);
   let n2 = norm2(_r);
   let status: SolveStatus = 'not-converged';
@@ -222,7 +344,12 @@ export function solveEquilibrium(model: VehicleModel, pose: Pose, options: Solve
   let stalls = 0;
   let checkpoint = n2;
   let checkpointIt = 0;
+  // The tyres' linearisation makes a cheap Jacobian; where it is not good enough (large camber,
+  // three-wheel stances, a wheel on an edge) progress stalls, and the solver switches to a
+  // Jacobian by finite differences of the full equations (ten more ray casts per iteration).
+  let fullJacobian = false;
   for (; it <= maxIt; it++) {
+    if (DEBUG_TRACE) DEBUG_TRACE(it, maxAbs(_r), fullJacobian);
     if (maxAbs(_r) < tol) {
       status = 'converged';
       reason = 'equilibrium found';
@@ -245,7 +372,8 @@ export function solveEquilibrium(model: VehicleModel, pose: Pose, options: Solve
       n2 = norm2(_r);
       continue;
     }
-    jacobian(model, x, _J);
+    if (fullJacobian) fullJacobianFd(model, x, _J);
+    else jacobian(model, x, _J);
     _A.set(_J);
     for (let i = 0; i < N; i++) _rhs[i] = -_r[i];
     let ok = solveLinearInPlace(N, _A, _rhs, _dx);
@@ -260,18 +388,27 @@ export function solveEquilibrium(model: VehicleModel, pose: Pose, options: Solve
       const a = Math.abs(_dx[k]);
       if (a * scale > MAX_STEP[k]) scale = MAX_STEP[k] / a;
     }
+    scale = contactStepLimit(model, x, scale);
     let alpha = scale;
     let accepted = false;
-    for (let ls = 0; ls < LINE_SEARCH_HALVINGS; ls++) {
-      for (let k = 0; k < N; k++) _xt[k] = x[k] + alpha * _dx[k];
+    const m0 = maxAbs(_r);
+    const halvings = fullJacobian ? FULL_LINE_SEARCH_HALVINGS : LINE_SEARCH_HALVINGS;
+    // With the full Jacobian the Newton step is trusted: try it whole first (it can jump over a
+    // contact change that a shortened step lands on), then the capped and halved steps.
+    const tryWhole = fullJacobian && scale < 1;
+    for (let ls = tryWhole ? -1 : 0; ls < halvings; ls++) {
+      const a = ls < 0 ? 1 : alpha;
+      for (let k = 0; k < N; k++) _xt[k] = x[k] + a * _dx[k];
       model.residual(_xt, true, _rt);
       const nt = norm2(_rt);
-      if (nt <= (1 - 1e-4 * alpha) * n2) {
+      // Accept a decrease of either the sum of squares or the largest equation: with contacts
+      // coming and going the two need not fall together.
+      if (nt <= (1 - 1e-4 * a) * n2 || maxAbs(_rt) < m0) {
         accepted = true;
         n2 = nt;
         break;
       }
-      alpha *= 0.5;
+      if (ls >= 0) alpha *= 0.5;
     }
     if (!accepted) {
       // No decrease along the Newton direction: take a damped least-squares step instead.
@@ -296,6 +433,13 @@ export function solveEquilibrium(model: VehicleModel, pose: Pose, options: Solve
       stalls++;
       // Keep the model's buffers on x itself.
       model.residual(x, true, _r);
+      if (!fullJacobian) {
+        fullJacobian = true;
+        stalls = 0;
+        checkpoint = n2;
+        checkpointIt = it;
+        continue;
+      }
       if (stalls >= 2) {
         reason = `the solver stalled at scaled residual ${maxAbs(_r).toExponential(2)}`;
         break;
@@ -308,6 +452,10 @@ export function solveEquilibrium(model: VehicleModel, pose: Pose, options: Solve
     if (n2 < 0.25 * checkpoint) {
       checkpoint = n2;
       checkpointIt = it;
+    } else if (it - checkpointIt >= PROGRESS_WINDOW && !fullJacobian) {
+      fullJacobian = true;
+      checkpoint = n2;
+      checkpointIt = it;
     } else if (it - checkpointIt >= PROGRESS_WINDOW) {
       reason = `no equilibrium nearby: the residual stopped falling (scaled ${maxAbs(_r).toExponential(2)})`;
       break;
@@ -318,8 +466,9 @@ export function solveEquilibrium(model: VehicleModel, pose: Pose, options: Solve
       break;
     }
   }
-  return collect(model, x, _r, status, it, reason, friction);
+  return { status, reason, iterations: it };
 }
+
 
 const _pts: number[] = [];
 const _ptWheel: number[] = [];

@@ -123,6 +123,8 @@ export class VehicleModel {
   poseY = 0;
   headingRad = 0;
   readonly gravity = new Float64Array([0, 0, -GRAVITY_MPS2]);
+  /** Multiplies every tyre spring rate: below 1 only while the solver eases into a hard pose (continuation). */
+  tyreRateScale = 1;
   /** Number of full (ray-cast) evaluations since the counter was reset. */
   fullEvaluations = 0;
 
@@ -366,7 +368,7 @@ export class VehicleModel {
         const list = this.featureLists[i];
         this.featureCounts[i] = this.field.featuresNear(cx - reach, cx + reach, cy - reach, cy + reach, list);
         evaluateTyre(
-          this.field, list, this.featureCounts[i], this.layout, ax.radiusM, ax.widthM, this.rayRateNPerM[i],
+          this.field, list, this.featureCounts[i], this.layout, ax.radiusM, ax.widthM, this.rayRateNPerM[i] * this.tyreRateScale,
           cx, cy, cz, a[3 * i], a[3 * i + 1], a[3 * i + 2], c,
         );
         this.linAxis[3 * i] = a[3 * i];
@@ -403,13 +405,21 @@ export class VehicleModel {
           this.sliceCentre[k3] = sx;
           this.sliceCentre[k3 + 1] = sy;
           this.sliceCentre[k3 + 2] = sz;
-          this.sliceForce[k3] = f0x + (wy * f0z - wz * f0y) + K[kb] * dx + K[kb + 1] * dy + K[kb + 2] * dz;
-          this.sliceForce[k3 + 1] = f0y + (wz * f0x - wx * f0z) + K[kb + 3] * dx + K[kb + 4] * dy + K[kb + 5] * dz;
-          this.sliceForce[k3 + 2] = f0z + (wx * f0y - wy * f0x) + K[kb + 6] * dx + K[kb + 7] * dy + K[kb + 8] * dz;
+          const T = c.turnStiffness;
+          this.sliceForce[k3] = f0x + (wy * f0z - wz * f0y) + K[kb] * dx + K[kb + 1] * dy + K[kb + 2] * dz
+            + T[kb] * wx + T[kb + 1] * wy + T[kb + 2] * wz;
+          this.sliceForce[k3 + 1] = f0y + (wz * f0x - wx * f0z) + K[kb + 3] * dx + K[kb + 4] * dy + K[kb + 5] * dz
+            + T[kb + 3] * wx + T[kb + 4] * wy + T[kb + 5] * wz;
+          this.sliceForce[k3 + 2] = f0z + (wx * f0y - wy * f0x) + K[kb + 6] * dx + K[kb + 7] * dy + K[kb + 8] * dz
+            + T[kb + 6] * wx + T[kb + 7] * wy + T[kb + 8] * wz;
+          // The contact point slides over the ground with the wheel: only the tangential part of the
+          // slice centre's move carries it (a wheel that rises leaves its contact on the ground).
+          const nx = c.normal[3 * j], ny = c.normal[3 * j + 1], nz = c.normal[3 * j + 2];
+          const dn = dx * nx + dy * ny + dz * nz;
           const rx = c.point[3 * j] - c0x, ry = c.point[3 * j + 1] - c0y, rz = c.point[3 * j + 2] - c0z;
-          this.slicePoint[k3] = sx + rx + (wy * rz - wz * ry);
-          this.slicePoint[k3 + 1] = sy + ry + (wz * rx - wx * rz);
-          this.slicePoint[k3 + 2] = sz + rz + (wx * ry - wy * rx);
+          this.slicePoint[k3] = c.point[3 * j] + dx - dn * nx + (wy * rz - wz * ry);
+          this.slicePoint[k3 + 1] = c.point[3 * j + 1] + dy - dn * ny + (wz * rx - wx * rz);
+          this.slicePoint[k3 + 2] = c.point[3 * j + 2] + dz - dn * nz + (wx * ry - wy * rx);
         }
       }
     }

@@ -54,11 +54,23 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
     evaluations += r.evaluations;
     return r;
   };
+  /**
+   * Solves at angleRad from a standing state at fromRad. A step that merely fails to converge
+   * while the plumb line is still well inside the support is a numerical miss, not a tip: it is
+   * retried in halves from the standing state (up to three levels).
+   */
+  const stepTo = (angleRad: number, fromRad: number, from: SolveResult, depth = 0): SolveResult => {
+    const r = solveAt(angleRad, from.state);
+    if (standing(r) || r.status !== 'not-converged' || r.margins.forceAngleRad <= 0 || depth >= 3) return r;
+    const midRad = 0.5 * (fromRad + angleRad);
+    const mid = stepTo(midRad, fromRad, from, depth + 1);
+    return standing(mid) ? stepTo(angleRad, midRad, mid, depth + 1) : mid;
+  };
   /** Narrows [lo, hi] (pred false at lo, true at hi) to the resolution. */
   const bisect = (lo: number, loRes: SolveResult, hi: number, hiRes: SolveResult, pred: (r: SolveResult) => boolean) => {
     while (hi - lo > resolution) {
       const mid = 0.5 * (lo + hi);
-      const r = solveAt(mid, loRes.state);
+      const r = stepTo(mid, lo, loRes);
       if (pred(r)) {
         hi = mid;
         hiRes = r;
@@ -104,7 +116,7 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
 
   while (prevAngle < maxAngle - 1e-12) {
     const a = Math.min(prevAngle + step, maxAngle);
-    const cur = solveAt(a, prev.state);
+    const cur = stepTo(a, prevAngle, prev);
     if (standing(cur)) {
       if (!firstLift && anyLifted(cur)) {
         const b = bisect(prevAngle, prev, a, cur, anyLifted);

@@ -202,6 +202,65 @@ export class TerrainField {
     return n;
   }
 
+  /**
+   * An upper bound on the terrain height over the rectangle, from the listed features (their
+   * heights add, so the sum of each one's maximum bounds the total). Lets the tyre skip springs
+   * whose tread point lies above all the ground near it without sampling the terrain.
+   */
+  maxHeightIn(list: Int32Array, count: number, xmin: number, xmax: number, ymin: number, ymax: number): number {
+    let total = 0;
+    const P = this.params;
+    for (let li = 0; li < count; li++) {
+      const i = list[li];
+      const p = i * STRIDE;
+      switch (this.types[i]) {
+        case T_PLANE: {
+          const gx = P[p], gy = P[p + 1];
+          total += P[p + 2] + (gx > 0 ? gx * xmax : gx * xmin) + (gy > 0 ? gy * ymax : gy * ymin);
+          break;
+        }
+        case T_STEP:
+          total += Math.max(0, P[p + 1]);
+          break;
+        case T_BLOCK:
+          total += Math.max(0, P[p + 4]);
+          break;
+        case T_ROCK:
+          total += Math.max(0, P[p + 2]);
+          break;
+        case T_RAMP:
+          total += Math.max(0, P[p + 1] * P[p + 2]);
+          break;
+        case T_PROFILE:
+        case T_GRID: {
+          total += this.maxData(i);
+          break;
+        }
+      }
+    }
+    return total;
+  }
+
+  private readonly dataMax = new Map<number, number>();
+
+  /** Largest height of a profile or grid (held at 0 from below: outside a bounded profile it adds 0). */
+  private maxData(i: number): number {
+    let m = this.dataMax.get(i);
+    if (m === undefined) {
+      const d = this.data[i] as Float64Array;
+      m = 0;
+      if (this.types[i] === T_PROFILE) {
+        for (let k = 1; k < d.length; k += 2) if (d[k] > m) m = d[k];
+      } else {
+        m = -Infinity;
+        for (let k = 0; k < d.length; k++) if (d[k] > m) m = d[k];
+        // A grid covers everywhere (edge values held), so its own maximum is the bound, even if negative.
+      }
+      this.dataMax.set(i, m);
+    }
+    return m;
+  }
+
   /** Height at (x, y) in m. */
   height(x: number, y: number): number {
     return this.sampleIn(this.all, this.featureCount, x, y, null);

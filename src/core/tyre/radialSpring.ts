@@ -70,16 +70,71 @@ export function makeTyreLayout(opts: TyreModelOptions = DEFAULT_TYRE_MODEL): Tyr
 }
 
 /**
- * Vertical force per unit spring rate of an upright tyre pressed δ into flat ground:
- * Σ_k max(0, R cos ψ_k − (R − δ)) (each spring's compression along its ray times cos ψ).
+ * Springs are not point springs: the compression is interpolated linearly between neighbouring
+ * springs around the tread and integrated (hat functions), so a tyre meeting the ground loads up
+ * smoothly from zero (force ∝ δ² at first touch, ∝ δ^1.5 once several springs bear, as for a
+ * continuous tread) instead of in steps when single springs touch. That keeps the equilibrium
+ * equations smooth enough for Newton's method across contact changes. Each spring's weight is
+ * the integral of max(0, δ(ψ)) times its hat function over its two neighbouring intervals.
+ */
+
+/** Adds segment [k, k+1] with compressions A, B to the spring weights (per unit interval). */
+function segmentWeights(A: number, B: number, out: Float64Array): void {
+  // out: [c_k, c_k1, dck/dA, dck/dB, dck1/dA, dck1/dB]
+  if (A >= 0 && B >= 0) {
+    out[0] = A / 3 + B / 6;
+    out[1] = A / 6 + B / 3;
+    out[2] = 1 / 3;
+    out[3] = 1 / 6;
+    out[4] = 1 / 6;
+    out[5] = 1 / 3;
+  } else if (A > 0) {
+    // Crossing at t0 = A / (A − B) from the k end.
+    const D = A - B;
+    const t0 = A / D;
+    const tA = -B / (D * D);
+    const tB = A / (D * D);
+    out[0] = A * (t0 / 2 - (t0 * t0) / 6);
+    out[1] = (A * t0 * t0) / 6;
+    const dk = A * (0.5 - t0 / 3);
+    const dk1 = (A * t0) / 3;
+    out[2] = t0 / 2 - (t0 * t0) / 6 + dk * tA;
+    out[3] = dk * tB;
+    out[4] = (t0 * t0) / 6 + dk1 * tA;
+    out[5] = dk1 * tB;
+  } else if (B > 0) {
+    const D = B - A;
+    const s0 = B / D;
+    const sB = -A / (D * D);
+    const sA = B / (D * D);
+    out[1] = B * (s0 / 2 - (s0 * s0) / 6);
+    out[0] = (B * s0 * s0) / 6;
+    const dk1 = B * (0.5 - s0 / 3);
+    const dk = (B * s0) / 3;
+    out[5] = s0 / 2 - (s0 * s0) / 6 + dk1 * sB;
+    out[4] = dk1 * sA;
+    out[3] = (s0 * s0) / 6 + dk * sB;
+    out[2] = dk * sA;
+  } else {
+    out[0] = out[1] = out[2] = out[3] = out[4] = out[5] = 0;
+  }
+}
+
+const _seg = new Float64Array(6);
+
+/**
+ * Vertical force per unit spring rate of an upright tyre pressed δ into flat ground: the springs'
+ * compressions along their rays, d_k = R − (R − δ)/cos ψ_k, integrated as above, times cos ψ_k.
  */
 export function flatForcePerRate(layout: TyreLayout, radiusM: number, deflectionM: number): number {
+  const H = radiusM - deflectionM;
   let f = 0;
-  const base = radiusM - deflectionM;
-  for (let k = 0; k < layout.rays; k++) {
-    const c = layout.rayCos[k];
-    const d = radiusM * c - base;
-    if (d > 0) f += d;
+  let prev = radiusM - H / layout.rayCos[0];
+  for (let k = 0; k + 1 < layout.rays; k++) {
+    const next = radiusM - H / layout.rayCos[k + 1];
+    segmentWeights(prev, next, _seg);
+    f += _seg[0] * layout.rayCos[k] + _seg[1] * layout.rayCos[k + 1];
+    prev = next;
   }
   return f;
 }
@@ -135,6 +190,11 @@ export class TyreContact {
   readonly point: Float64Array;
   /** ∂force/∂centre for a translation of the slice (N/m). */
   readonly stiffness: Float64Array;
+  /**
+   * ∂force/∂ω for a small turn ω of the spring fan about the slice centre through the change in
+   * the springs' compressions (N/rad); the turn of the force's direction itself (ω × F) is not in it.
+   */
+  readonly turnStiffness: Float64Array;
   /** Load-weighted mean spring compression of the slice (m). */
   readonly deflection: Float64Array;
   /** Unit ground normal under the slice: the compression-weighted mean of the normals where its springs touch. */
@@ -148,12 +208,41 @@ export class TyreContact {
     this.centre = new Float64Array(3 * slices);
     this.point = new Float64Array(3 * slices);
     this.stiffness = new Float64Array(9 * slices);
+    this.turnStiffness = new Float64Array(9 * slices);
     this.deflection = new Float64Array(slices);
     this.normal = new Float64Array(3 * slices);
   }
 }
 
 const _grad = new Float64Array(2);
+/** Per-spring scratch for one slice: compression, its gradient, ground point and normal. */
+let _rayD = new Float64Array(0);
+let _rayG = new Float64Array(0);
+let _rayHit = new Float64Array(0);
+let _rayN = new Float64Array(0);
+/** Component c of ρ_k (e_k × G_k) for ray k of the current slice (ρ from its compression). */
+function turnOf(
+  k: number, layout: TyreLayout, fx: number, fy: number, fz: number, ux: number, uy: number, uz: number, R: number, c: number,
+): number {
+  const sn = layout.raySin[k];
+  const cs = layout.rayCos[k];
+  const ex = sn * fx - cs * ux;
+  const ey = sn * fy - cs * uy;
+  const ez = sn * fz - cs * uz;
+  const gx = _rayG[3 * k], gy = _rayG[3 * k + 1], gz = _rayG[3 * k + 2];
+  const rho = R - _rayD[k];
+  if (c === 0) return rho * (ey * gz - ez * gy);
+  if (c === 1) return rho * (ez * gx - ex * gz);
+  return rho * (ex * gy - ey * gx);
+}
+
+function ensureRayScratch(rays: number): void {
+  if (_rayD.length >= rays) return;
+  _rayD = new Float64Array(rays);
+  _rayG = new Float64Array(3 * rays);
+  _rayHit = new Float64Array(3 * rays);
+  _rayN = new Float64Array(3 * rays);
+}
 
 /**
  * Evaluates one tyre at wheel centre (cx, cy, cz) with unit axis (ax, ay, az), both in the
@@ -202,7 +291,15 @@ export function evaluateTyre(
   const defl = out.deflection;
   const R = radiusM;
   let loaded = 0;
+  // Springs whose tread point is above every bit of ground near the tyre cannot touch: skip them.
+  const reach = R + widthM;
+  const groundMax = field.maxHeightIn(features, featureCount, cx - reach, cx + reach, cy - reach, cy + reach);
 
+  ensureRayScratch(layout.rays);
+  const D = _rayD;
+  const G = _rayG;
+  const Hp = _rayHit;
+  const Nm = _rayN;
   for (let j = 0; j < layout.slices; j++) {
     const off = layout.sliceFraction[j] * widthM;
     const rate = rayRateNPerM * layout.sliceWeight[j];
@@ -212,35 +309,57 @@ export function evaluateTyre(
     centre[3 * j] = sx;
     centre[3 * j + 1] = sy;
     centre[3 * j + 2] = sz;
-    let Fx = 0;
-    let Fy = 0;
-    let Fz = 0;
-    let k00 = 0, k01 = 0, k02 = 0, k10 = 0, k11 = 0, k12 = 0, k20 = 0, k21 = 0, k22 = 0;
-    let px = 0;
-    let py = 0;
-    let pz = 0;
-    let dsum = 0;
-    let d2sum = 0;
-    let nxs = 0;
-    let nys = 0;
-    let nzs = 0;
-    // Height of the slice centre above the ground below it: f(0) of every ray's search.
+    // Height of the slice centre above the ground below it: g(0) of every ray's search.
     const f0 = sz - field.sampleIn(features, featureCount, sx, sy, null);
 
+    // Pass 1: each spring's signed compression d_k along its ray (negative: the gap, estimated from
+    // the tread point), its gradient ∂d_k/∂c = m / (m·e) and where it meets the ground.
     for (let k = 0; k < layout.rays; k++) {
       const sn = layout.raySin[k];
       const cs = layout.rayCos[k];
       const ex = sn * fx - cs * ux;
       const ey = sn * fy - cs * uy;
       const ez = sn * fz - cs * uz;
-      // Tread point of this spring: is it below the ground?
-      const gR = sz + R * ez - field.sampleIn(features, featureCount, sx + R * ex, sy + R * ey, _grad);
-      if (gR >= 0) continue;
-      // Find ρ* in (0, R) where the ray meets the ground: safeguarded Newton on
-      // g(ρ) = z(ρ) − H(x(ρ), y(ρ)), bracketed by g(lo) > 0 > g(hi).
+      const tipZ = sz + R * ez;
+      G[3 * k] = 0;
+      G[3 * k + 1] = 0;
+      G[3 * k + 2] = 0;
+      if (tipZ > groundMax) {
+        // Above all the ground near the tyre: the gap along the ray to the level of the highest
+        // ground (exact for level ground), and its gradient.
+        const down = ez < -GRAZING_MIN ? ez : -GRAZING_MIN;
+        D[k] = (tipZ - groundMax) / down;
+        G[3 * k + 2] = 1 / down;
+        Hp[3 * k] = sx + R * ex;
+        Hp[3 * k + 1] = sy + R * ey;
+        Hp[3 * k + 2] = tipZ;
+        Nm[3 * k] = 0;
+        Nm[3 * k + 1] = 0;
+        Nm[3 * k + 2] = 1;
+        continue;
+      }
+      const gR = tipZ - field.sampleIn(features, featureCount, sx + R * ex, sy + R * ey, _grad);
+      let mx = -_grad[0];
+      let my = -_grad[1];
+      if (gR >= 0) {
+        // Not touching: gap along the ray from the slope of g at the tread point.
+        const mn = Math.sqrt(mx * mx + my * my + 1);
+        let me = mx * ex + my * ey + ez;
+        if (me > -GRAZING_MIN * mn) me = -GRAZING_MIN * mn;
+        D[k] = gR / me;
+        const c = 1 / me;
+        G[3 * k] = c * mx;
+        G[3 * k + 1] = c * my;
+        G[3 * k + 2] = c;
+        Hp[3 * k] = sx + R * ex;
+        Hp[3 * k + 1] = sy + R * ey;
+        Hp[3 * k + 2] = tipZ;
+        Nm[3 * k] = mx / mn;
+        Nm[3 * k + 1] = my / mn;
+        Nm[3 * k + 2] = 1 / mn;
+        continue;
+      }
       let rho: number;
-      let mx: number;
-      let my: number;
       if (f0 <= 0) {
         // The slice centre itself is under the ground (a wheel sunk in a hole): full compression.
         rho = 0;
@@ -267,33 +386,102 @@ export function evaluateTyre(
         mx = -_grad[0];
         my = -_grad[1];
       }
-      const delta = R - rho;
-      const fk = rate * delta;
-      Fx -= fk * ex;
-      Fy -= fk * ey;
-      Fz -= fk * ez;
+      D[k] = R - rho;
       // dδ/dc = m / (m·e) with m = (−Hx, −Hy, 1) the unnormalised ground normal at the hit.
       const mn = Math.sqrt(mx * mx + my * my + 1);
       let me = mx * ex + my * ey + ez;
       if (me > -GRAZING_MIN * mn) me = -GRAZING_MIN * mn;
-      const c = -rate / me;
-      k00 += c * ex * mx;
-      k01 += c * ex * my;
-      k02 += c * ex;
-      k10 += c * ey * mx;
-      k11 += c * ey * my;
-      k12 += c * ey;
-      k20 += c * ez * mx;
-      k21 += c * ez * my;
-      k22 += c * ez;
-      px += delta * (sx + rho * ex);
-      py += delta * (sy + rho * ey);
-      pz += delta * (sz + rho * ez);
-      dsum += delta;
-      d2sum += delta * delta;
-      nxs += (delta * mx) / mn;
-      nys += (delta * my) / mn;
-      nzs += delta / mn;
+      const c = 1 / me;
+      G[3 * k] = c * mx;
+      G[3 * k + 1] = c * my;
+      G[3 * k + 2] = c;
+      Hp[3 * k] = sx + rho * ex;
+      Hp[3 * k + 1] = sy + rho * ey;
+      Hp[3 * k + 2] = sz + rho * ez;
+      Nm[3 * k] = mx / mn;
+      Nm[3 * k + 1] = my / mn;
+      Nm[3 * k + 2] = 1 / mn;
+    }
+
+    let Fx = 0;
+    let Fy = 0;
+    let Fz = 0;
+    let k00 = 0, k01 = 0, k02 = 0, k10 = 0, k11 = 0, k12 = 0, k20 = 0, k21 = 0, k22 = 0;
+    let r00 = 0, r01 = 0, r02 = 0, r10 = 0, r11 = 0, r12 = 0, r20 = 0, r21 = 0, r22 = 0;
+    let px = 0;
+    let py = 0;
+    let pz = 0;
+    let wsum = 0;
+    let dsum = 0;
+    let nxs = 0;
+    let nys = 0;
+    let nzs = 0;
+    // Pass 2: integrate the compressions over the tread (segment by segment) into the slice's
+    // force, its stiffness, the centre of pressure and the mean ground normal.
+    {
+      for (let k = 0; k + 1 < layout.rays; k++) {
+        const A = D[k];
+        const B = D[k + 1];
+        if (A <= 0 && B <= 0) continue;
+        segmentWeights(A, B, _seg);
+        for (let side = 0; side < 2; side++) {
+          const r = k + side;
+          const w = _seg[side];
+          const dA = _seg[2 + 2 * side];
+          const dB = _seg[3 + 2 * side];
+          const sn = layout.raySin[r];
+          const cs = layout.rayCos[r];
+          const ex = sn * fx - cs * ux;
+          const ey = sn * fy - cs * uy;
+          const ez = sn * fz - cs * uz;
+          const fk = rate * w;
+          Fx -= fk * ex;
+          Fy -= fk * ey;
+          Fz -= fk * ez;
+          // ∂w/∂c = dA·G_k + dB·G_{k+1}; K += −rate · e (∂w/∂c)ᵀ.
+          const vx = dA * G[3 * k] + dB * G[3 * k + 3];
+          const vy = dA * G[3 * k + 1] + dB * G[3 * k + 4];
+          const vz = dA * G[3 * k + 2] + dB * G[3 * k + 5];
+          k00 -= rate * ex * vx;
+          k01 -= rate * ex * vy;
+          k02 -= rate * ex * vz;
+          k10 -= rate * ey * vx;
+          k11 -= rate * ey * vy;
+          k12 -= rate * ey * vz;
+          k20 -= rate * ez * vx;
+          k21 -= rate * ez * vy;
+          k22 -= rate * ez * vz;
+          // Turning the fan by ω moves each ray: ∂d_b/∂ω = ρ_b (e_b × G_b).
+          const tx = dA * turnOf(k, layout, fx, fy, fz, ux, uy, uz, R, 0) + dB * turnOf(k + 1, layout, fx, fy, fz, ux, uy, uz, R, 0);
+          const ty = dA * turnOf(k, layout, fx, fy, fz, ux, uy, uz, R, 1) + dB * turnOf(k + 1, layout, fx, fy, fz, ux, uy, uz, R, 1);
+          const tz = dA * turnOf(k, layout, fx, fy, fz, ux, uy, uz, R, 2) + dB * turnOf(k + 1, layout, fx, fy, fz, ux, uy, uz, R, 2);
+          r00 -= rate * ex * tx;
+          r01 -= rate * ex * ty;
+          r02 -= rate * ex * tz;
+          r10 -= rate * ey * tx;
+          r11 -= rate * ey * ty;
+          r12 -= rate * ey * tz;
+          r20 -= rate * ez * tx;
+          r21 -= rate * ez * ty;
+          r22 -= rate * ez * tz;
+          if (w > 0) {
+            // A spring with no ground under its own ray (a partial interval) bears at its tread point.
+            const hx = D[r] > 0 || G[3 * r + 2] !== 0 ? Hp[3 * r] : sx + R * ex;
+            const hy = D[r] > 0 || G[3 * r + 2] !== 0 ? Hp[3 * r + 1] : sy + R * ey;
+            const hz = D[r] > 0 || G[3 * r + 2] !== 0 ? Hp[3 * r + 2] : sz + R * ez;
+            px += w * hx;
+            py += w * hy;
+            pz += w * hz;
+            wsum += w;
+            dsum += w * (D[r] > 0 ? D[r] : 0);
+            if (G[3 * r + 2] !== 0) {
+              nxs += w * Nm[3 * r];
+              nys += w * Nm[3 * r + 1];
+              nzs += w * Nm[3 * r + 2];
+            }
+          }
+        }
+      }
     }
     force[3 * j] = Fx;
     force[3 * j + 1] = Fy;
@@ -308,12 +496,28 @@ export function evaluateTyre(
     K[kb + 6] = k20;
     K[kb + 7] = k21;
     K[kb + 8] = k22;
-    if (dsum > 0) {
-      point[3 * j] = px / dsum;
-      point[3 * j + 1] = py / dsum;
-      point[3 * j + 2] = pz / dsum;
-      defl[j] = d2sum / dsum;
-      const nl = Math.sqrt(nxs * nxs + nys * nys + nzs * nzs);
+    const T = out.turnStiffness;
+    T[kb] = r00;
+    T[kb + 1] = r01;
+    T[kb + 2] = r02;
+    T[kb + 3] = r10;
+    T[kb + 4] = r11;
+    T[kb + 5] = r12;
+    T[kb + 6] = r20;
+    T[kb + 7] = r21;
+    T[kb + 8] = r22;
+    if (wsum > 0) {
+      point[3 * j] = px / wsum;
+      point[3 * j + 1] = py / wsum;
+      point[3 * j + 2] = pz / wsum;
+      defl[j] = dsum / wsum;
+      let nl = Math.sqrt(nxs * nxs + nys * nys + nzs * nzs);
+      if (!(nl > 0)) {
+        nxs = 0;
+        nys = 0;
+        nzs = 1;
+        nl = 1;
+      }
       out.normal[3 * j] = nxs / nl;
       out.normal[3 * j + 1] = nys / nl;
       out.normal[3 * j + 2] = nzs / nl;
