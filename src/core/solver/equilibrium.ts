@@ -46,7 +46,7 @@ const FULL_FD_STEP = 1e-7;
 /** Body attitude beyond which the vehicle is taken to have gone over (rad, about 75°). */
 const RUNAWAY_ANGLE_RAD = 1.3;
 const LINE_SEARCH_HALVINGS = 4;
-const FULL_LINE_SEARCH_HALVINGS = 20;
+const FULL_LINE_SEARCH_HALVINGS = 8;
 /** How far past touching a lifted tyre may be driven by one Newton step (m). */
 const CONTACT_OVERSHOOT_M = 0.002;
 /** The contact step limit never shortens a step below this fraction. */

@@ -70,7 +70,8 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
   const bisect = (lo: number, loRes: SolveResult, hi: number, hiRes: SolveResult, pred: (r: SolveResult) => boolean) => {
     while (hi - lo > resolution) {
       const mid = 0.5 * (lo + hi);
-      const r = stepTo(mid, lo, loRes);
+      // Inside a narrow bracket the warm start is close: a failure there is taken as it is.
+      const r = solveAt(mid, loRes.state);
       if (pred(r)) {
         hi = mid;
         hiRes = r;
