@@ -4,7 +4,7 @@
  * by run (A and B interleaved in each run, so slow drifts of the machine cancel) and then
  * summarised the same way.
  */
-import { cpus } from 'node:os';
+import { cpus, loadavg } from 'node:os';
 
 export interface Figure {
   readonly name: string;
@@ -23,6 +23,8 @@ export interface Machine {
   readonly cpuModel: string;
   readonly node: string;
   readonly date: string;
+  /** One-minute load average when the bench started: other work on the machine inflates the times. */
+  readonly loadAverage1m: number;
 }
 
 export interface RunPlan {
@@ -41,6 +43,7 @@ export function machine(): Machine {
     cpuModel: list.length > 0 ? list[0].model.trim() : 'unknown',
     node: process.version,
     date: new Date().toISOString(),
+    loadAverage1m: Math.round(loadavg()[0] * 100) / 100,
   };
 }
 

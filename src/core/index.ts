@@ -7,3 +7,5 @@ export { tiltSweep, toSample } from './solver/tilt';
 export { VehicleModel, GRAVITY_MPS2, STATE_SIZE, rigidStaticLoads, type ModelOptions } from './solver/model';
 export { stabilityMargins, supportHull } from './solver/margins';
 export { DEFAULT_TYRE_MODEL, makeTyreLayout, calibrateTyre, flatForcePerRate, evaluateTyre, TyreContact } from './tyre/radialSpring';
+export * from './analysis/index';
+export * from './report/index';

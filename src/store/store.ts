@@ -20,6 +20,8 @@ import {
 
 /** Most edits kept for undo. */
 export const HISTORY_LIMIT = 100;
+/** Edits of one field closer together than this merge into one undo step (ms). */
+export const EDIT_MERGE_MS = 1500;
 
 export interface SweepState {
   /** The scenario the sweep was run for (stale when it differs from the current one). */
@@ -53,6 +55,11 @@ export interface PlumbState {
   setUnits(units: UnitSystem): void;
   /** Replace the whole scenario (an edit; undoable). */
   replaceScenario(scenario: Scenario): void;
+  /**
+   * An edit from a form field: like replaceScenario, but keystrokes in the same field within
+   * EDIT_MERGE_MS make one undo step.
+   */
+  editScenario(scenario: Scenario, fieldKey: string): void;
   /** Validate and load a scenario file's data; on failure keep the current scenario and set importErrors. */
   importData(data: unknown): boolean;
   importText(text: string): boolean;
@@ -91,6 +98,7 @@ const now = (): number => (typeof performance !== 'undefined' ? performance.now(
 export function createPlumbStore(initial: Scenario, units: UnitSystem = initial.units): PlumbStore {
   const cache: ModelCache = { model: null, vehicle: null, terrain: null };
   let dragStart: Scenario | null = null;
+  let lastEdit = { key: '', atMs: -Infinity };
 
   /** Solve s, warm-started from prev when the vehicle is the same. */
   const solve = (s: Scenario, prev: SolveResult | null, prevScenario: Scenario | null): { result: SolveResult; solveMs: number } => {
@@ -157,7 +165,14 @@ export function createPlumbStore(initial: Scenario, units: UnitSystem = initial.
         set({ units: u });
       },
       replaceScenario(scenario) {
+        lastEdit = { key: '', atMs: -Infinity };
         apply(scenario, true);
+      },
+      editScenario(scenario, fieldKey) {
+        const t = now();
+        const merge = fieldKey === lastEdit.key && t - lastEdit.atMs < EDIT_MERGE_MS && get().past.length > 0;
+        lastEdit = { key: fieldKey, atMs: t };
+        apply(scenario, !merge);
       },
       importData(data) {
         const parsed = parseScenario(data);

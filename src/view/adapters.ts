@@ -98,7 +98,7 @@ export function terrainExtent(pose: Pose, path: { fromM: readonly [number, numbe
 }
 
 /** Largest number of vertices per terrain mesh side; the step grows for large areas. */
-const MAX_SIDE = 320;
+const MAX_SIDE = 200;
 
 export interface TerrainBuffers {
   readonly geometry: THREE.BufferGeometry;

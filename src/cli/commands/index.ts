@@ -6,9 +6,15 @@ import type { CommandSpec } from '../command';
 import { checkCommand } from './check';
 import { poseCommand } from './pose';
 import { tiltCommand } from './tilt';
+import { reportCommand } from './report';
+import { passCommand } from './pass';
+import { roseCommand } from './rose';
+import { linesCommand } from './lines';
+import { compareCommand } from './compare';
+import { cgCommand } from './cg';
 
 /** Every command, in the order `plumbline --help` lists them. */
-export const COMMANDS: readonly CommandSpec[] = [checkCommand, poseCommand, tiltCommand];
+export const COMMANDS: readonly CommandSpec[] = [checkCommand, poseCommand, tiltCommand, reportCommand, passCommand, roseCommand, linesCommand, compareCommand, cgCommand];
 
 export function findCommand(name: string): CommandSpec | undefined {
   return COMMANDS.find((c) => c.name === name);

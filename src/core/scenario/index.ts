@@ -2,10 +2,12 @@
 export type { Scenario, ScenarioError, ParseResult, UnitSystem } from './types';
 export { parseScenario, parseScenarioText, defaultBodyShape, SCENARIO_DEFAULTS } from './parse';
 export { scenarioToFile, type ScenarioFileObject } from './write';
+export { buildsToSI, buildsToFile, buildsCrossChecks } from './builds';
 export {
   scenarioFileSchema,
   SCENARIO_VERSION,
   SCENARIO_LIMITS,
+  BUILD_LIMITS,
   PLAUSIBLE,
   FEATURE_TYPES,
   SUSPENSION_TYPES,
@@ -31,3 +33,5 @@ export {
   unitLabel,
   type QuantityKind,
 } from './units';
+export { migrateScenario, MIGRATION_STEPS, type MigrateResult, type MigrationStep } from './migrate';
+export { scenarioJsonSchema, scenarioJsonSchemaFor, scenarioJsonSchemaText, SCENARIO_SCHEMA_REF } from './jsonSchema';

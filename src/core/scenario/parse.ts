@@ -18,6 +18,7 @@ import {
 } from './schema';
 import { describeValue, formatLimit, formatPath, withUnit } from './messages';
 import { RAD_PER_DEG, metricToFileUnits, toSI, unitLabel } from './units';
+import { buildsCrossChecks, buildsToSI } from './builds';
 
 /**
  * Defaults for optional fields, in metric file units (m, deg). Applied only in `toScenario`.
@@ -451,6 +452,7 @@ function toScenario(d: ScenarioFileData, warnings: string[]): Scenario {
     path,
     friction: d.ground?.friction ?? D.friction,
     notes: d.notes ?? D.notes,
+    ...(d.builds ? { builds: buildsToSI(d.builds, u) } : {}),
   };
 }
 
@@ -503,6 +505,7 @@ export function parseScenario(input: unknown): ParseResult {
       }
     }
     crossChecks(data, units, errors);
+    buildsCrossChecks(data, errors);
     if (errors.length > 0 || !result.success) return { ok: false, errors: dedupe(errors) };
     const warnings: string[] = [];
     const scenario = toScenario(result.data, warnings);

@@ -391,6 +391,61 @@ export function buildScenarioSchema(u: UnitSystem) {
     return z.NEVER;
   });
 
+  // --- Builds (analyses, issue 3): modifications of the vehicle compared side by side by
+  // `compare`. Lengths are in the file's units, except the wheel fitment, which is written as the
+  // trade states it in every file: rim width and backspacing in inches, offset in millimetres.
+  const B = BUILD_LIMITS;
+  /** A number in a fixed unit whatever the file's units (wheel fitment). */
+  const fixed = (unit: string, min: number, max: number) =>
+    z
+      .number({
+        error: (iss: RawIssue) =>
+          iss.input === undefined ? `required (${unit})` : `must be a finite number in ${unit}, got ${describeValue(iss.input)}`,
+      })
+      .gte(min, { abort: true, error: (iss: RawIssue) => `must be ≥ ${min} ${unit}, got ${describeValue(iss.input)}` })
+      .lte(max, { abort: true, error: (iss: RawIssue) => `must be ≤ ${max} ${unit}, got ${describeValue(iss.input)}` });
+  const fitment = obj({
+    rimWidth: fixed('in', B.rimWidthMinIn, B.rimWidthMaxIn),
+    offset: fixed('mm', -B.offsetMaxMm, B.offsetMaxMm).optional(),
+    backspacing: fixed('in', 0, B.rimWidthMaxIn + 1).optional(),
+  });
+  const antiRollSetting = z.unknown().transform((v, ctx): number | 'disconnected' => {
+    if (v === 'disconnected') return v;
+    const unit = unitLabel('rollStiffness', u);
+    if (typeof v === 'number' && Number.isFinite(v) && v >= 0) return v;
+    ctx.addIssue({ code: 'custom', message: `must be "disconnected" or a stiffness ≥ 0 ${unit}, got ${describeValue(v)}` });
+    return z.NEVER;
+  });
+  const axleTravel = obj({
+    bump: len(['≥', 0], ['≤', P.travelMaxM]).optional(),
+    droop: len(['≥', 0], ['≤', P.travelMaxM]).optional(),
+  });
+  const build = obj({
+    name: text(L.nameChars, true),
+    lift: obj({
+      suspension: len(['≥', 0], ['≤', B.liftMaxM]).optional(),
+      body: len(['≥', 0], ['≤', B.liftMaxM]).optional(),
+      bodyMassShare: num('ratio', ['>', 0], ['≤', 1]).optional(),
+    }).optional(),
+    tyre: obj({
+      radius: len(['>', 0], ['≤', P.tyreRadiusMaxM]),
+      width: len(['>', 0]).optional(),
+      stiffness: num('stiffness', ['>', 0]).optional(),
+    }).optional(),
+    wheels: obj({
+      axle: oneOf(['front', 'rear', 'both'] as const).optional(),
+      rimWidth: fixed('in', B.rimWidthMinIn, B.rimWidthMaxIn).optional(),
+      offset: fixed('mm', -B.offsetMaxMm, B.offsetMaxMm).optional(),
+      backspacing: fixed('in', 0, B.rimWidthMaxIn + 1).optional(),
+      spacer: len(['≥', 0], ['≤', B.spacerMaxM]).optional(),
+      stock: fitment.optional(),
+    }).optional(),
+    payload: list(payloadItem, 0, L.payloadItems, 'payload items').optional(),
+    antiRoll: obj({ front: antiRollSetting.optional(), rear: antiRollSetting.optional() }).optional(),
+    travel: obj({ front: axleTravel.optional(), rear: axleTravel.optional() }).optional(),
+  });
+  // --- end of builds ---
+
   return obj({
     $schema: z.string({ error: (iss: RawIssue) => `must be text, got ${describeValue(iss.input)}` }).optional(),
     version: z.literal(SCENARIO_VERSION, {
@@ -416,12 +471,28 @@ export function buildScenarioSchema(u: UnitSystem) {
     })
       .nullable()
       .optional(),
+    builds: list(build, 0, B.builds, 'builds').optional(),
     ground: obj({
       // A friction coefficient above 3 is no tyre on any ground (Noon 1994 lists 0.1 to 0.75 on roads).
       friction: num('ratio', ['>', 0], ['≤', 3]).optional(),
     }).optional(),
   });
 }
+
+/**
+ * Bounds of the `builds` block (analyses): metric file units, except the wheel fitment (in, mm).
+ * Rims from 4 to 20 in wide and offsets within ±150 mm cover road and off-road wheels; a lift or a
+ * spacer beyond these is almost always a unit mistake.
+ */
+export const BUILD_LIMITS = {
+  /** Builds per scenario (compared side by side). */
+  builds: 6,
+  liftMaxM: 0.5,
+  spacerMaxM: 0.15,
+  rimWidthMinIn: 4,
+  rimWidthMaxIn: 20,
+  offsetMaxMm: 150,
+} as const;
 
 /** Most messages listed for one list's elements (grid heights, profile points); the rest are counted. */
 export const MAX_ELEMENT_MESSAGES = 10;

@@ -1,4 +1,5 @@
 import type { PathSpec, Pose, Terrain, Tilt, Vehicle } from '../model/types';
+import type { BuildSpec } from '../analysis/builds';
 
 /** Unit system of a scenario file. The core is always SI; this only says how the file's numbers read. */
 export type UnitSystem = 'metric' | 'imperial';
@@ -25,6 +26,8 @@ export interface Scenario {
   readonly friction: number;
   /** Free text. @default "" */
   readonly notes: string;
+  /** Builds (modifications of the vehicle) for side-by-side comparison; absent or [] when the file gives none. */
+  readonly builds?: readonly BuildSpec[];
 }
 
 /** One problem found in a scenario file: the field path (e.g. `vehicle.track.front`) and what is wrong. */

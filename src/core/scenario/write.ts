@@ -6,6 +6,7 @@ import type { AxleSuspension, TerrainFeature, TyreSpec } from '../model/types';
 import type { Scenario, UnitSystem } from './types';
 import { DOWNHILL_NAMES, type DownhillName } from './schema';
 import { RAD_PER_DEG, fromSI } from './units';
+import { buildsToFile } from './builds';
 
 /** JSON-ready scenario file data. */
 export type ScenarioFileObject = Record<string, unknown>;
@@ -109,5 +110,6 @@ export function scenarioToFile(s: Scenario, units: UnitSystem = s.units): Scenar
     };
   }
   out.ground = { friction: s.friction };
+  if (s.builds && s.builds.length > 0) out.builds = buildsToFile(s.builds, units);
   return out;
 }

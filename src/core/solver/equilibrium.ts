@@ -45,8 +45,13 @@ const FD_STEP = 1e-7;
 const FULL_FD_STEP = 1e-7;
 /** Body attitude beyond which the vehicle is taken to have gone over (rad, about 75°). */
 const RUNAWAY_ANGLE_RAD = 1.3;
+/** Travel below this counts as none when expressing travel as a fraction of what is available (m). */
+const MIN_TRAVEL_M = 1e-9;
 const LINE_SEARCH_HALVINGS = 4;
-const FULL_LINE_SEARCH_HALVINGS = 8;
+const FULL_LINE_SEARCH_HALVINGS = 12;
+/** With the full Jacobian: iterations without a fourfold fall, and steps taken without any fall, before giving up. */
+const FULL_PROGRESS_WINDOW = 12;
+const FULL_STALLS = 3;
 /** How far past touching a lifted tyre may be driven by one Newton step (m). */
 const CONTACT_OVERSHOOT_M = 0.002;
 /** The contact step limit never shortens a step below this fraction. */
@@ -410,6 +415,15 @@ function newton(model: VehicleModel, x: Float64Array, tol: number, maxIt: number
       }
       if (ls >= 0) alpha *= 0.5;
     }
+    if (!accepted && fullJacobian && stalls < FULL_STALLS) {
+      // With the full Jacobian, take the shortest step tried even without a decrease: with
+      // contacts coming and going the residual need not fall monotonically on the way.
+      stalls++;
+      n2 = norm2(_rt);
+      x.set(_xt);
+      _r.set(_rt);
+      continue;
+    }
     if (!accepted) {
       // No decrease along the Newton direction: take a damped least-squares step instead.
       let lambda = 1e-2;
@@ -456,7 +470,7 @@ function newton(model: VehicleModel, x: Float64Array, tol: number, maxIt: number
       fullJacobian = true;
       checkpoint = n2;
       checkpointIt = it;
-    } else if (it - checkpointIt >= PROGRESS_WINDOW) {
+    } else if (it - checkpointIt >= FULL_PROGRESS_WINDOW) {
       reason = `no equilibrium nearby: the residual stopped falling (scaled ${maxAbs(_r).toExponential(2)})`;
       break;
     }
@@ -539,7 +553,8 @@ function collect(
       centreWorld: centre,
       axisWorld: axis,
       travelM: t,
-      travelFraction: avail > 0 ? t / avail : t === 0 ? 0 : Math.sign(t),
+      // No travel that way (a corner with zero droop, or a value too small to divide by): ±1 once it moves.
+      travelFraction: avail > MIN_TRAVEL_M ? t / avail : Math.abs(t) <= MIN_TRAVEL_M ? 0 : Math.sign(t),
       tyreDeflectionM: lifted ? 0 : dsum / wsum,
       tangentialN: lifted ? 0 : tangential,
       frictionDemand: lifted ? 0 : tangential / load,

@@ -133,7 +133,12 @@ describe('the builds block of the scenario file', () => {
   });
 
   it('imperial file: lift and spacer in inches; fitment still in and mm', () => {
-    const file = scenarioToFile((parseScenarioText(JSON.stringify(demo)) as { ok: true; scenario: never }).scenario, 'imperial') as Record<string, unknown>;
+    const parsed = parseScenarioText(JSON.stringify(demo));
+    if (!parsed.ok) throw new Error(JSON.stringify(parsed.errors));
+    const file = scenarioToFile(parsed.scenario, 'imperial');
+    // And back: the imperial file reads to the same builds.
+    const back = parseScenario(file);
+    expect(back.ok && back.scenario.builds![1].wheels!.spacerM).toBeCloseTo(0.0254, 12);
     const builds = file.builds as { lift?: { suspension: number }; wheels?: { offset?: number; spacer?: number } }[];
     expect(builds[0].lift!.suspension).toBeCloseTo(2.5, 9);
     expect(builds[0].wheels!.offset).toBeCloseTo(-12, 9);

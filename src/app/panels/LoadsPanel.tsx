@@ -1,0 +1,79 @@
+import { useMemo } from 'react';
+import { STANDARD_GRAVITY_M_PER_S2 } from '../../core';
+import { angleText, forceText, lengthText, percentText, scaleText, travelText } from '../format';
+import { usePlumb } from '../storeContext';
+import { warningsFor } from '../warnings';
+import { viridisCss } from '../../view/colormap';
+
+/** Side table: the four tyre loads, weight, margins and warnings in words. */
+export function LoadsPanel() {
+  const r = usePlumb((s) => s.result);
+  const units = usePlumb((s) => s.units);
+  const friction = usePlumb((s) => s.scenario.friction);
+  const warnings = useMemo(() => warningsFor(r, friction), [r, friction]);
+  let sum = 0;
+  for (const w of r.wheels) sum += w.verticalLoadN;
+  return (
+    <section className="panel" aria-labelledby="loads-h">
+      <h2 id="loads-h">Tyre loads</h2>
+      <p className="weight" data-testid="vehicle-weight" data-weight-n={r.weightN}>
+        Vehicle weight with payload: <b>{scaleText(r.weightN, units)}</b> ({forceText(r.weightN, units)})
+      </p>
+      <table className="loads">
+        <thead>
+          <tr>
+            <th scope="col">Tyre</th>
+            <th scope="col" title="What a scale under the tyre reads (force along gravity)">Scale reading</th>
+            <th scope="col" title="Force across the contact, normal to the ground">Normal load</th>
+            <th scope="col">Of static</th>
+            <th scope="col" title="Suspension travel from ride height, + is bump">Travel</th>
+          </tr>
+        </thead>
+        <tbody>
+          {r.wheels.map((w) => {
+            const share = w.staticLoadN > 0 ? w.verticalLoadN / w.staticLoadN : 0;
+            return (
+              <tr key={w.name} className={w.lifted ? 'lifted' : undefined} data-testid={`table-load-${w.name}`}>
+                <th scope="row">
+                  <span className="swatch" style={{ background: viridisCss(share / 2) }} aria-hidden="true" /> {w.name}
+                </th>
+                <td>{w.lifted ? <strong>LIFTED</strong> : scaleText(w.verticalLoadN, units)}</td>
+                <td>{forceText(w.loadN, units)}</td>
+                <td>{percentText(share)}</td>
+                <td>
+                  {travelText(w.travelM, units)} <small>({Math.round(w.travelFraction * 100)} %)</small>
+                </td>
+              </tr>
+            );
+          })}
+        </tbody>
+        <tfoot>
+          <tr>
+            <th scope="row">Sum</th>
+            <td data-testid="load-sum">{scaleText(sum, units)}</td>
+            <td colSpan={3} />
+          </tr>
+        </tfoot>
+      </table>
+      <p className="status" data-testid="solve-status">
+        {r.status === 'converged' ? 'Balanced' : r.status === 'tipped' ? 'Tipped' : r.status === 'no-contact' ? 'No contact' : 'Not settled'}
+        {' · '}force-angle margin {angleText(r.margins.forceAngleRad)}
+        {' · '}plumb point {lengthText(r.margins.staticM, units)} inside the support
+        {' · '}body roll {angleText(r.body.rollToLevelRad)} and pitch {angleText(r.body.pitchToLevelRad)} to level
+      </p>
+      <ul className="warnings" data-testid="warnings" aria-live="polite">
+        {warnings.length === 0 ? <li className="note">No lift or tip warnings at this pose.</li> : null}
+        {warnings.map((w, i) => (
+          <li key={i} className={w.level}>
+            {w.level === 'danger' ? 'Danger: ' : w.level === 'warning' ? 'Warning: ' : 'Note: '}
+            {w.text}
+          </li>
+        ))}
+      </ul>
+      <p className="fineprint">
+        Loads are scale readings: force along gravity divided by g = {STANDARD_GRAVITY_M_PER_S2} m/s², so the four add up
+        to the weight on any slope. Normal load is the force across the contact.
+      </p>
+    </section>
+  );
+}

@@ -1,0 +1,155 @@
+/** `plumbline lines FILE --offset FROM:TO:STEP --heading FROM:TO:STEP`: sweep lines, rank by smallest margin. */
+import { makeLines, rankLines, toSI, type LineSummary } from '../../core/index';
+import { EXIT_BAD_INPUT, EXIT_OK, type CommandSpec } from '../command';
+import { formatKeyValues, formatTable } from '../format';
+import { loadScenarioFile, toJsonText } from '../load';
+import { displayUnits } from '../solveScenario';
+import { runLinesParallel } from '../parallel';
+import { CAUTION, deg, formatCsv, parseRange, progressReporter, round } from '../analysisOutput';
+
+const RAD_PER_DEG = Math.PI / 180;
+/** Most lines in one sweep. */
+const MAX_LINES = 5000;
+
+function lineJson(l: LineSummary, rank: number): object {
+  return {
+    rank,
+    line: l.index,
+    offsetM: round(l.offsetM),
+    headingChangeDeg: deg(l.headingChangeRad),
+    fromM: l.path.fromM.map((v) => round(v)),
+    toM: l.path.toM.map((v) => round(v)),
+    stationsSolved: l.stationsSolved,
+    plannedStations: l.plannedStations,
+    minForceAngleDeg: deg(l.minForceAngleRad),
+    minMarginDistanceM: round(l.minMarginDistanceM),
+    energyAtMinM: round(l.energyAtMinM),
+    minClearanceM: round(l.minClearanceM),
+    firstUnload: l.firstUnload ? { wheel: l.firstUnload.wheel, distanceM: round(l.firstUnload.distanceM) } : null,
+    firstLift: l.firstLift ? { wheel: l.firstLift.wheel, distanceM: round(l.firstLift.distanceM) } : null,
+    tip: l.tip ? { distanceM: round(l.tip.distanceM), reason: l.tip.reason } : null,
+  };
+}
+
+export const linesCommand: CommandSpec = {
+  name: 'lines',
+  summary: 'Best line: sweep the path\'s sideways offset and heading, run each line as a pass, rank by smallest margin.',
+  description:
+    'A line is the scenario path moved to its left by an offset (in the file\'s length unit; negative: right)\n' +
+    'and turned counter-clockwise by a heading change (degrees) about its midpoint. Lines are ranked by\n' +
+    'their smallest force-angle margin; a line that tips ranks below every line that does not.\n' +
+    'Runs on worker threads (one per core) and falls back to one thread if they cannot start.',
+  args: [{ name: 'FILE', description: 'scenario file (JSON) with a path' }],
+  options: [
+    { name: 'offset', kind: 'string', valueName: 'FROM:TO:STEP', description: 'sideways offsets (file length unit)', default: '0' },
+    { name: 'heading', kind: 'string', valueName: 'FROM:TO:STEP', description: 'heading changes (degrees)', default: '0' },
+    { name: 'workers', kind: 'number', valueName: 'N', description: 'worker threads (default: one per core; 0 runs in-process)' },
+    { name: 'json', kind: 'flag', description: 'print one JSON object (metres, degrees), lines best first' },
+    { name: 'csv', kind: 'flag', description: 'print one CSV row per line, best first' },
+    { name: 'quiet', kind: 'flag', description: 'no progress lines on stderr' },
+  ],
+  async run(args, io) {
+    const file = args.positionals[0];
+    const loaded = loadScenarioFile(file, io);
+    if (!loaded.ok) return EXIT_BAD_INPUT;
+    const s = loaded.scenario;
+    if (!s.path) {
+      io.err(`${file}: path: required for a line sweep (from, to, step)`);
+      return EXIT_BAD_INPUT;
+    }
+    const off = parseRange('offset', String(args.options.offset));
+    const hd = parseRange('heading', String(args.options.heading));
+    // Offsets in the file's length unit, headings in degrees: converted here, at the edge.
+    const m = (v: number) => toSI('length', v, s.units);
+    const lines = makeLines(
+      s.path,
+      { from: m(off.from), to: m(off.to), step: m(off.step) },
+      { from: hd.from * RAD_PER_DEG, to: hd.to * RAD_PER_DEG, step: hd.step * RAD_PER_DEG },
+    );
+    if (lines.length === 0 || lines.length > MAX_LINES) {
+      io.err(`lines: the ranges give ${lines.length} lines; must be 1 to ${MAX_LINES}`);
+      return EXIT_BAD_INPUT;
+    }
+    const workersOpt = args.options.workers;
+    if (workersOpt !== undefined && !(Number.isInteger(workersOpt) && (workersOpt as number) >= 0)) {
+      io.err(`--workers: must be a whole number ≥ 0, got ${String(workersOpt)}`);
+      return EXIT_BAD_INPUT;
+    }
+    const t0 = Date.now();
+    const result = await runLinesParallel(
+      { vehicle: s.vehicle, terrain: s.terrain, options: { friction: s.friction, tilt: s.tilt.angleRad !== 0 ? s.tilt : undefined }, lines },
+      {
+        workers: workersOpt === undefined ? undefined : Math.max(1, workersOpt as number),
+        inProcess: workersOpt === 0,
+        onProgress: progressReporter(io, 'lines', !args.options.quiet),
+      },
+    );
+    const seconds = (Date.now() - t0) / 1000;
+    if (result.fallbackReason) io.err(`lines: ${result.fallbackReason}`);
+    if (!args.options.quiet) io.err(`lines: ${lines.length} lines in ${seconds.toFixed(1)} s on ${result.workers || 1} thread(s)`);
+    const ranking = rankLines(result.summaries);
+    if (args.options.json) {
+      io.out(
+        toJsonText({
+          lineCount: lines.length,
+          best: lineJson(ranking.best, 1),
+          worst: lineJson(ranking.worst, ranking.ranked.length),
+          lines: ranking.ranked.map((l, i) => lineJson(l, i + 1)),
+        }),
+      );
+    } else if (args.options.csv) {
+      io.out(
+        formatCsv(
+          ['rank', 'line', 'offset_m', 'heading_change_deg', 'min_force_angle_deg', 'at_m', 'energy_at_min_m', 'min_clearance_m', 'first_unload', 'first_lift', 'tip_at_m'],
+          ranking.ranked.map((l, i) => [
+            i + 1,
+            l.index,
+            round(l.offsetM),
+            deg(l.headingChangeRad),
+            deg(l.minForceAngleRad),
+            round(l.minMarginDistanceM),
+            round(l.energyAtMinM),
+            round(l.minClearanceM),
+            l.firstUnload ? `${l.firstUnload.wheel}@${round(l.firstUnload.distanceM)}` : null,
+            l.firstLift ? `${l.firstLift.wheel}@${round(l.firstLift.distanceM)}` : null,
+            l.tip ? round(l.tip.distanceM) : null,
+          ]),
+        ),
+      );
+    } else {
+      const u = displayUnits(s.units);
+      const describe = (l: LineSummary) =>
+        `offset ${u.lengthOf(l.offsetM).toFixed(2)} ${u.length}, heading ${deg(l.headingChangeRad, 1)}°: smallest force-angle ${deg(l.minForceAngleRad, 1)}°${l.tip ? `, tips at ${u.lengthOf(l.tip.distanceM).toFixed(2)} ${u.length}` : ''}`;
+      io.out(`${s.name}: ${s.vehicle.name}, ${lines.length} lines`);
+      io.out(formatKeyValues([['best line', describe(ranking.best)], ['worst line', describe(ranking.worst)]]));
+      io.out('');
+      io.out(
+        formatTable(
+          [
+            { header: 'rank', digits: 0 },
+            { header: 'offset', unit: u.length, digits: 2 },
+            { header: 'heading', unit: '°', digits: 1 },
+            { header: 'min force-angle', unit: '°', digits: 1 },
+            { header: 'at', unit: u.length, digits: 2 },
+            { header: 'clearance', unit: u.length, digits: 2 },
+            { header: 'goes light' },
+            { header: 'tip at', unit: u.length, digits: 2 },
+          ],
+          ranking.ranked.map((l, i) => [
+            i + 1,
+            u.lengthOf(l.offsetM),
+            deg(l.headingChangeRad),
+            deg(l.minForceAngleRad),
+            u.lengthOf(l.minMarginDistanceM),
+            u.lengthOf(l.minClearanceM),
+            l.firstUnload ? `${l.firstUnload.wheel} at ${u.lengthOf(l.firstUnload.distanceM).toFixed(2)}` : '',
+            l.tip ? u.lengthOf(l.tip.distanceM) : null,
+          ]),
+        ),
+      );
+      io.out('');
+      io.out(CAUTION);
+    }
+    return EXIT_OK;
+  },
+};

@@ -1,0 +1,187 @@
+/** `plumbline pass FILE`: crawl the scenario's path station by station; events and the headline. */
+import { WHEEL_NAMES, runPass, type PassResult, type Scenario } from '../../core/index';
+import { EXIT_BAD_INPUT, EXIT_FAILURE, EXIT_OK, type CliIO, type CommandSpec } from '../command';
+import { formatKeyValues, formatTable } from '../format';
+import { loadScenarioFile, toJsonText } from '../load';
+import { displayUnits, modelOf } from '../solveScenario';
+import { CAUTION, deg, formatCsv, progressReporter, round } from '../analysisOutput';
+
+/** Stations from which a pass reports progress on stderr. */
+const PROGRESS_FROM_STATIONS = 500;
+
+/** The documented JSON form of a pass (metres, newtons, degrees; units in the key names). */
+export function passJson(r: PassResult): object {
+  return {
+    plannedStations: r.plannedStations,
+    stepM: r.path.stepM,
+    lightShare: r.lightShare,
+    friction: r.friction,
+    approximateStations: r.approximateStations,
+    firstUnload: r.firstUnload ? { wheel: r.firstUnload.wheel, station: r.firstUnload.station, distanceM: round(r.firstUnload.distanceM) } : null,
+    firstLift: r.firstLift ? { wheel: r.firstLift.wheel, station: r.firstLift.station, distanceM: round(r.firstLift.distanceM) } : null,
+    tip: r.tip ? { station: r.tip.station, distanceM: round(r.tip.distanceM), status: r.tip.status, reason: r.tip.reason } : null,
+    minMargin: r.minMargin
+      ? { station: r.minMargin.station, distanceM: round(r.minMargin.distanceM), forceAngleDeg: deg(r.minMargin.forceAngleRad), energyM: round(r.minMargin.energyM) }
+      : null,
+    minClearance: r.minClearance
+      ? { station: r.minClearance.station, distanceM: round(r.minClearance.distanceM), clearanceM: round(r.minClearance.clearanceM), part: r.minClearance.part }
+      : null,
+    events: r.events.map((e) => ({
+      kind: e.kind,
+      wheel: e.wheel,
+      part: e.part,
+      startStation: e.startStation,
+      startDistanceM: round(e.startDistanceM),
+      endStation: e.endStation,
+      endDistanceM: round(e.endDistanceM),
+    })),
+    stations: r.stations.map((s) => ({
+      station: s.index,
+      distanceM: round(s.distanceM),
+      xM: round(s.pose.xM),
+      yM: round(s.pose.yM),
+      headingDeg: deg(s.pose.headingRad),
+      status: s.status,
+      approximate: s.approximate,
+      wheels: Object.fromEntries(
+        s.wheels.map((w, i) => [
+          WHEEL_NAMES[i],
+          { loadN: round(w.loadN, 1), loadShare: round(w.loadShare), travelFraction: round(w.travelFraction), lifted: w.lifted, frictionDemand: round(w.frictionDemand) },
+        ]),
+      ),
+      rollDeg: deg(s.rollRad),
+      pitchDeg: deg(s.pitchRad),
+      forceAngleDeg: deg(s.forceAngleRad),
+      energyM: round(s.energyM),
+      clearanceM: round(s.clearanceM),
+      clearancePart: s.clearancePart,
+      clearancePointM: s.clearancePointWorld.map((v) => round(v)),
+    })),
+  };
+}
+
+export function passCsv(r: PassResult): string {
+  const header = ['station', 'distance_m', 'x_m', 'y_m', 'status', 'approximate'];
+  for (const w of WHEEL_NAMES) header.push(`${w}_load_n`, `${w}_share`, `${w}_travel_fraction`, `${w}_lifted`, `${w}_friction_demand`);
+  header.push('roll_deg', 'pitch_deg', 'force_angle_deg', 'energy_m', 'clearance_m', 'clearance_part');
+  const rows = r.stations.map((s) => {
+    const row: (string | number | boolean | null)[] = [s.index, round(s.distanceM), round(s.pose.xM), round(s.pose.yM), s.status, s.approximate];
+    for (const w of s.wheels) row.push(round(w.loadN, 1), round(w.loadShare), round(w.travelFraction), w.lifted, round(w.frictionDemand));
+    row.push(deg(s.rollRad), deg(s.pitchRad), deg(s.forceAngleRad), round(s.energyM), round(s.clearanceM), s.clearancePart);
+    return row;
+  });
+  return formatCsv(header, rows);
+}
+
+function printText(s: Scenario, r: PassResult, io: CliIO, withStations: boolean): void {
+  const u = displayUnits(s.units);
+  const len = (m: number) => `${u.lengthOf(m).toFixed(s.units === 'imperial' ? 1 : 2)} ${u.length}`;
+  const at = (x: { distanceM: number; station: number }) => `at ${len(x.distanceM)} (station ${x.station})`;
+  io.out(`${s.name}: ${s.vehicle.name}, ${r.stations.length} of ${r.plannedStations} stations every ${len(r.path.stepM)}`);
+  io.out(
+    formatKeyValues([
+      ['first wheel to go light', r.firstUnload ? `${r.firstUnload.wheel} ${at(r.firstUnload)} (below ${Math.round(r.lightShare * 100)} % of its level load)` : 'none'],
+      ['first wheel to lift', r.firstLift ? `${r.firstLift.wheel} ${at(r.firstLift)}` : 'none'],
+      ['tip', r.tip ? `${at(r.tip)}: ${r.tip.reason}; the pass stops there` : 'none'],
+      [
+        'smallest margin',
+        r.minMargin ? `force-angle ${deg(r.minMargin.forceAngleRad, 1)}°, energy ${len(r.minMargin.energyM)} ${at(r.minMargin)}` : '–',
+      ],
+      [
+        'least underbody clearance',
+        r.minClearance ? `${len(r.minClearance.clearanceM)} under the ${r.minClearance.part} ${at(r.minClearance)}${r.minClearance.clearanceM <= 0 ? ' (contact)' : ''}` : '–',
+      ],
+    ]),
+  );
+  if (r.approximateStations > 0) {
+    io.out(`${r.approximateStations} station(s) solved only to within 0.1 % of the weight (a tyre on an edge); flagged "approximate" in --json and --csv.`);
+  }
+  io.out('');
+  if (r.events.length === 0) io.out('events: none');
+  else {
+    io.out(
+      formatTable(
+        [{ header: 'event' }, { header: 'where' }, { header: 'from', unit: u.length, digits: 2 }, { header: 'to', unit: u.length, digits: 2 }],
+        r.events.map((e) => [e.kind, e.wheel ?? e.part ?? '', u.lengthOf(e.startDistanceM), e.endDistanceM === null ? 'end' : u.lengthOf(e.endDistanceM)]),
+      ),
+    );
+  }
+  if (withStations) {
+    io.out('');
+    io.out(
+      formatTable(
+        [
+          { header: 'at', unit: u.length, digits: 2 },
+          ...WHEEL_NAMES.map((w) => ({ header: w, unit: u.force, digits: 0 })),
+          { header: 'roll', unit: '°', digits: 1 },
+          { header: 'pitch', unit: '°', digits: 1 },
+          { header: 'force-angle', unit: '°', digits: 1 },
+          { header: 'clearance', unit: u.length, digits: 2 },
+        ],
+        r.stations.map((st) => [
+          u.lengthOf(st.distanceM),
+          ...st.wheels.map((w) => u.forceOf(w.loadN)),
+          deg(st.rollRad, 2),
+          deg(st.pitchRad, 2),
+          deg(st.forceAngleRad, 2),
+          u.lengthOf(st.clearanceM),
+        ]),
+      ),
+    );
+  }
+  io.out('');
+  io.out('Clearance: the body is a box (belly, overhangs) and the axles their centre-lines; the solver does not rest the body on the ground.');
+  io.out(CAUTION);
+}
+
+export const passCommand: CommandSpec = {
+  name: 'pass',
+  summary: 'Obstacle pass: crawl the path station by station; which wheel goes light first, lifts, margins, clearance.',
+  description:
+    'Steps the vehicle along the scenario\'s path (from, to, step; heading along the path unless it sets one),\n' +
+    'solving each station from the last. Events: a wheel light (below --light of its level load), lifted,\n' +
+    'at full bump or droop, needing more grip than the ground has; underbody contact; the tip (the pass stops).',
+  args: [{ name: 'FILE', description: 'scenario file (JSON) with a path' }],
+  options: [
+    { name: 'light', kind: 'number', valueName: 'SHARE', description: 'a wheel is light below this share of its level-ground load', default: 0.25 },
+    { name: 'stations', kind: 'flag', description: 'also print the table of every station' },
+    { name: 'json', kind: 'flag', description: 'print one JSON object (metres, newtons, degrees)' },
+    { name: 'csv', kind: 'flag', description: 'print the stations as CSV' },
+    { name: 'quiet', kind: 'flag', description: 'no progress lines on stderr' },
+  ],
+  run(args, io) {
+    const file = args.positionals[0];
+    const loaded = loadScenarioFile(file, io);
+    if (!loaded.ok) return EXIT_BAD_INPUT;
+    const s = loaded.scenario;
+    if (!s.path) {
+      io.err(`${file}: path: required for a pass (from, to, step)`);
+      return EXIT_BAD_INPUT;
+    }
+    const light = args.options.light as number;
+    if (!(light >= 0 && light <= 1)) {
+      io.err(`--light: must be between 0 and 1, got ${light}`);
+      return EXIT_BAD_INPUT;
+    }
+    const model = modelOf(s);
+    const r = runPass(model, s.path, {
+      friction: s.friction,
+      lightShare: light,
+      tilt: s.tilt.angleRad !== 0 ? s.tilt : undefined,
+      onProgress: progressReporter(io, 'pass', !args.options.quiet && s.path && stationsOf(s) >= PROGRESS_FROM_STATIONS),
+    });
+    if (args.options.json) io.out(toJsonText(passJson(r)));
+    else if (args.options.csv) io.out(passCsv(r));
+    else printText(s, r, io, Boolean(args.options.stations));
+    if (r.stations.length > 0 && r.stations[0].status !== 'converged' && !r.stations[0].approximate) {
+      io.err(`plumbline: the vehicle does not stand at the start of the path (${r.stations[0].status})`);
+      return EXIT_FAILURE;
+    }
+    return EXIT_OK;
+  },
+};
+
+function stationsOf(s: Scenario): number {
+  const p = s.path!;
+  return Math.hypot(p.toM[0] - p.fromM[0], p.toM[1] - p.fromM[1]) / p.stepM;
+}

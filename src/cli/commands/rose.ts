@@ -1,0 +1,125 @@
+/** `plumbline rose FILE`: tilt-table lift and tip angles for downhill directions all round the vehicle. */
+import { buildModel, stabilityRose, type RoseDirection, type RoseResult } from '../../core/index';
+import { EXIT_BAD_INPUT, EXIT_OK, type CommandSpec } from '../command';
+import { formatKeyValues, formatTable } from '../format';
+import { loadScenarioFile, toJsonText } from '../load';
+import { CAUTION, deg, formatCsv, progressReporter } from '../analysisOutput';
+
+const RAD_PER_DEG = Math.PI / 180;
+
+function directionJson(d: RoseDirection): object {
+  return {
+    downhillDeg: deg(d.downhillRad),
+    firstLift: d.firstLift ? { wheel: d.firstLift.wheel, angleDeg: deg(d.firstLift.angleRad) } : null,
+    tip: d.tip ? { angleDeg: deg(d.tip.angleRad), edge: d.tip.edge } : null,
+    slide: d.slide ? { angleDeg: deg(d.slide.angleRad) } : null,
+  };
+}
+
+export function roseJson(r: RoseResult, onTerrain: boolean): object {
+  return {
+    table: onTerrain ? 'scenario terrain at the scenario pose' : 'level tilt table',
+    maxAngleDeg: deg(r.maxAngleRad),
+    weakest: directionJson(r.weakest),
+    weakestLift: directionJson(r.weakestLift),
+    directions: r.directions.map(directionJson),
+    evaluations: r.evaluations,
+  };
+}
+
+/** Words for a downhill direction (vehicle frame). */
+function directionWords(rad: number): string {
+  const d = Math.round(((rad * 180) / Math.PI) * 10) / 10;
+  const names: Record<number, string> = { 0: 'nose down', 90: 'left side down', 180: 'tail down', 270: 'right side down' };
+  return names[d] ? `${d}° (${names[d]})` : `${d}°`;
+}
+
+export const roseCommand: CommandSpec = {
+  name: 'rose',
+  summary: 'Stability rose: tilt at first wheel lift and at tip for downhill directions all round.',
+  description:
+    'Directions in the vehicle frame: 0 nose down, 90 left side down, 180 tail down, 270 right side down.\n' +
+    'By default on a level tilt table (the scenario\'s terrain is not used); --terrain tilts the scenario\'s\n' +
+    'terrain at its pose instead. Static limits only: operating limits are far lower (common practice:\n' +
+    'makers print about 15° for utility vehicles and ATVs).',
+  args: [{ name: 'FILE', description: 'scenario file (JSON)' }],
+  options: [
+    { name: 'step', kind: 'number', valueName: 'DEG', description: 'spacing of the downhill directions', default: 5 },
+    { name: 'terrain', kind: 'flag', description: 'tilt the scenario terrain at the scenario pose instead of a level table' },
+    { name: 'json', kind: 'flag', description: 'print one JSON object (degrees)' },
+    { name: 'csv', kind: 'flag', description: 'print one CSV row per direction' },
+    { name: 'quiet', kind: 'flag', description: 'no progress lines on stderr' },
+  ],
+  run(args, io) {
+    const file = args.positionals[0];
+    const loaded = loadScenarioFile(file, io);
+    if (!loaded.ok) return EXIT_BAD_INPUT;
+    const s = loaded.scenario;
+    const stepDeg = args.options.step as number;
+    if (!(stepDeg >= 0.5 && stepDeg <= 180)) {
+      io.err(`--step: must be between 0.5 and 180 degrees, got ${stepDeg}`);
+      return EXIT_BAD_INPUT;
+    }
+    const onTerrain = Boolean(args.options.terrain);
+    const model = buildModel(s.vehicle, onTerrain ? s.terrain : { features: [] });
+    const pose = onTerrain ? s.pose : { xM: 0, yM: 0, headingRad: 0 };
+    const r = stabilityRose(model, pose, {
+      stepRad: stepDeg * RAD_PER_DEG, // degrees at the CLI edge, radians in the core
+      friction: s.friction,
+      onProgress: progressReporter(io, 'rose', !args.options.quiet, 25),
+    });
+    if (args.options.json) io.out(toJsonText(roseJson(r, onTerrain)));
+    else if (args.options.csv) {
+      io.out(
+        formatCsv(
+          ['downhill_deg', 'first_lift_wheel', 'first_lift_deg', 'tip_deg', 'tip_edge', 'slide_deg'],
+          r.directions.map((d) => [
+            deg(d.downhillRad),
+            d.firstLift?.wheel ?? null,
+            deg(d.firstLift?.angleRad),
+            deg(d.tip?.angleRad),
+            d.tip ? d.tip.edge.join('-') : null,
+            deg(d.slide?.angleRad),
+          ]),
+        ),
+      );
+    } else {
+      io.out(`${s.name}: ${s.vehicle.name}, ${onTerrain ? 'on the scenario terrain' : 'level tilt table'}, every ${stepDeg}°`);
+      io.out(
+        formatKeyValues([
+          ['weakest direction (tip)', `${directionWords(r.weakest.downhillRad)}: tips at ${r.weakest.tip ? `${deg(r.weakest.tip.angleRad, 1)}°` : `> ${deg(r.maxAngleRad, 0)}°`}`],
+          [
+            'earliest wheel lift',
+            r.weakestLift.firstLift
+              ? `${r.weakestLift.firstLift.wheel} at ${deg(r.weakestLift.firstLift.angleRad, 1)}°, ${directionWords(r.weakestLift.downhillRad)}`
+              : 'none before the tip',
+          ],
+        ]),
+      );
+      io.out('');
+      io.out(
+        formatTable(
+          [
+            { header: 'downhill', unit: '°', digits: 1 },
+            { header: 'lifts' },
+            { header: 'lift', unit: '°', digits: 2 },
+            { header: 'tip', unit: '°', digits: 2 },
+            { header: 'over' },
+            { header: 'slides', unit: '°', digits: 2 },
+          ],
+          r.directions.map((d) => [
+            deg(d.downhillRad),
+            d.firstLift?.wheel ?? '',
+            deg(d.firstLift?.angleRad),
+            deg(d.tip?.angleRad),
+            d.tip ? d.tip.edge.join('–') : '',
+            deg(d.slide?.angleRad),
+          ]),
+        ),
+      );
+      io.out('');
+      io.out(CAUTION);
+    }
+    return EXIT_OK;
+  },
+};

@@ -1,0 +1,8 @@
+/** Analyses built on the pose solver: obstacle pass, stability rose, best line, builds, CG from scale readings. */
+export * from './clearance';
+export * from './pass';
+export * from './rose';
+export * from './lines';
+export * from './builds';
+export * from './cg';
+export * from './ramp';

@@ -1,0 +1,122 @@
+/**
+ * Stability rose: a tilt-table sweep (SAE J2180 / ISO 16333 style: raise the table slowly, note
+ * the angle at which a wheel lifts and where it goes over) for downhill directions all round the
+ * vehicle. Directions are in the vehicle frame, counter-clockwise from the nose: 0 nose down,
+ * π/2 left side down, π tail down, 3π/2 right side down.
+ *
+ * Static limits only: operating limits are far lower (common practice: makers print about 15°).
+ */
+import type { Pose, TiltSweepResult, WheelName } from '../model/types';
+import { tiltSweep } from '../solver/tilt';
+import type { VehicleModel } from '../solver/model';
+
+const DEG = Math.PI / 180;
+
+export interface RoseOptions {
+  /** Spacing of the downhill directions (rad). @default 5° */
+  readonly stepRad?: number;
+  /** Coarse tilt step of each sweep (rad). @default 1° */
+  readonly sweepStepRad?: number;
+  /** Bisection resolution of each sweep (rad). @default 0.01° */
+  readonly resolutionRad?: number;
+  /** Largest tilt tried (rad). @default 89° */
+  readonly maxAngleRad?: number;
+  /** Ground friction coefficient (for the slide angle). @default 0.7 */
+  readonly friction?: number;
+  /** Called after each direction with the directions done and the total. */
+  readonly onProgress?: (done: number, total: number) => void;
+}
+
+export interface RoseDirection {
+  readonly downhillRad: number;
+  readonly firstLift: { readonly wheel: WheelName; readonly angleRad: number } | null;
+  readonly tip: { readonly angleRad: number; readonly edge: readonly WheelName[] } | null;
+  readonly slide: { readonly angleRad: number } | null;
+}
+
+export interface RoseResult {
+  readonly directions: RoseDirection[];
+  /** The direction with the smallest tip angle (a direction with no tip up to maxAngleRad counts as maxAngleRad). */
+  readonly weakest: RoseDirection;
+  /** The direction with the smallest first-lift angle (no lift counts as its tip, then maxAngleRad). */
+  readonly weakestLift: RoseDirection;
+  readonly maxAngleRad: number;
+  readonly evaluations: number;
+}
+
+function summary(r: TiltSweepResult): RoseDirection {
+  return { downhillRad: r.downhillRad, firstLift: r.firstLift, tip: r.tip, slide: r.slide };
+}
+
+export function tipAngleOf(d: RoseDirection, maxAngleRad: number): number {
+  return d.tip ? d.tip.angleRad : maxAngleRad;
+}
+
+export function liftAngleOf(d: RoseDirection, maxAngleRad: number): number {
+  return d.firstLift ? d.firstLift.angleRad : tipAngleOf(d, maxAngleRad);
+}
+
+/** Tilt sweeps for every downhill direction from 0 to 2π (exclusive) at stepRad. */
+export function stabilityRose(model: VehicleModel, pose: Pose, opts: RoseOptions = {}): RoseResult {
+  const step = opts.stepRad ?? 5 * DEG;
+  const maxAngleRad = opts.maxAngleRad ?? 89 * DEG;
+  const n = Math.max(1, Math.round((2 * Math.PI) / step));
+  const directions: RoseDirection[] = [];
+  let evaluations = 0;
+  for (let i = 0; i < n; i++) {
+    const r = tiltSweep(model, pose, {
+      downhillRad: (2 * Math.PI * i) / n,
+      stepRad: opts.sweepStepRad,
+      resolutionRad: opts.resolutionRad,
+      maxAngleRad,
+      friction: opts.friction,
+    });
+    evaluations += r.evaluations;
+    directions.push(summary(r));
+    opts.onProgress?.(i + 1, n);
+  }
+  return { directions, ...weakestOf(directions, maxAngleRad), maxAngleRad, evaluations };
+}
+
+function weakestOf(directions: readonly RoseDirection[], maxAngleRad: number): { weakest: RoseDirection; weakestLift: RoseDirection } {
+  let weakest = directions[0];
+  let weakestLift = directions[0];
+  for (const d of directions) {
+    if (tipAngleOf(d, maxAngleRad) < tipAngleOf(weakest, maxAngleRad)) weakest = d;
+    if (liftAngleOf(d, maxAngleRad) < liftAngleOf(weakestLift, maxAngleRad)) weakestLift = d;
+  }
+  return { weakest, weakestLift };
+}
+
+export interface CardinalLimits {
+  readonly noseDown: RoseDirection;
+  readonly leftDown: RoseDirection;
+  readonly tailDown: RoseDirection;
+  readonly rightDown: RoseDirection;
+}
+
+export type CardinalName = keyof CardinalLimits;
+/** The four named directions and their downhill angle (rad). */
+export const CARDINALS: readonly (readonly [name: CardinalName, downhillRad: number])[] = [
+  ['noseDown', 0],
+  ['leftDown', Math.PI / 2],
+  ['tailDown', Math.PI],
+  ['rightDown', (3 * Math.PI) / 2],
+];
+
+/** Lift and tip for nose-down (0), left-down (π/2), tail-down (π) and right-down (3π/2). */
+export function cardinalLimits(model: VehicleModel, pose: Pose, opts: Omit<RoseOptions, 'stepRad' | 'onProgress'> = {}): CardinalLimits {
+  const out: Partial<Record<CardinalName, RoseDirection>> = {};
+  for (const [name, downhillRad] of CARDINALS) {
+    out[name] = summary(
+      tiltSweep(model, pose, {
+        downhillRad,
+        stepRad: opts.sweepStepRad,
+        resolutionRad: opts.resolutionRad,
+        maxAngleRad: opts.maxAngleRad,
+        friction: opts.friction,
+      }),
+    );
+  }
+  return out as CardinalLimits;
+}

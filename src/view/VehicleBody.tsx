@@ -1,0 +1,63 @@
+import { useEffect, useMemo, useRef } from 'react';
+import * as THREE from 'three';
+import { usePlumb } from '../app/storeContext';
+import { bodyMatrix } from './adapters';
+import { useSceneApi } from './sceneContext';
+import { useSolved } from './useSolved';
+
+export interface VehicleBodyProps {
+  /** Body opacity; see-through so the CG and the far wheels stay visible. */
+  opacity?: number;
+}
+
+/** The body as a box from the body outline (overhangs, width, belly to roof), posed as solved. */
+export function VehicleBody({ opacity = 0.28 }: VehicleBodyProps) {
+  const api = useSceneApi();
+  const body = usePlumb((s) => s.scenario.vehicle.body);
+  const wheelbaseM = usePlumb((s) => s.scenario.vehicle.wheelbaseM);
+  const group = useRef<THREE.Group>(null);
+  const mesh = useRef<THREE.Mesh>(null);
+  const { box, edges, centre } = useMemo(() => {
+    const front = wheelbaseM / 2 + body.frontOverhangM;
+    const rear = -(wheelbaseM / 2 + body.rearOverhangM);
+    const lengthM = front - rear;
+    const heightM = Math.max(0.05, body.roofHeightM - body.bellyClearanceM);
+    const b = new THREE.BoxGeometry(lengthM, body.widthM, heightM);
+    return {
+      box: b,
+      edges: new THREE.EdgesGeometry(b),
+      centre: new THREE.Vector3((front + rear) / 2, 0, body.bellyClearanceM + heightM / 2),
+    };
+  }, [body, wheelbaseM]);
+  useEffect(() => () => (box.dispose(), edges.dispose()), [box, edges]);
+  useEffect(() => {
+    const m = mesh.current;
+    if (!m) return;
+    api.grabbable.push(m);
+    return () => {
+      const i = api.grabbable.indexOf(m);
+      if (i >= 0) api.grabbable.splice(i, 1);
+    };
+  }, [api]);
+  useSolved((s) => {
+    const g = group.current;
+    if (!g) return;
+    bodyMatrix(s.model, s.scenario.pose, s.result, g.matrix);
+    g.matrixWorldNeedsUpdate = true;
+  });
+  return (
+    <group ref={group} matrixAutoUpdate={false} name="body">
+      <mesh ref={mesh} geometry={box} position={centre} renderOrder={2}>
+        <meshLambertMaterial color="#8fa3b8" transparent opacity={opacity} depthWrite={false} />
+      </mesh>
+      <lineSegments geometry={edges} position={centre}>
+        <lineBasicMaterial color="#1d2a36" />
+      </lineSegments>
+      {/* Nose marker: a bar across the front face so the heading reads at a glance. */}
+      <mesh position={[centre.x + (wheelbaseM / 2 + body.frontOverhangM - centre.x), 0, body.bellyClearanceM + 0.12]}>
+        <boxGeometry args={[0.04, body.widthM * 0.9, 0.08]} />
+        <meshLambertMaterial color="#1d2a36" />
+      </mesh>
+    </group>
+  );
+}

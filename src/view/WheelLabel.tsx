@@ -1,0 +1,35 @@
+import { WHEEL_NAMES } from '../core';
+import { usePlumb } from '../app/storeContext';
+import { percentText, scaleText } from '../app/format';
+import { useSceneApi } from './sceneContext';
+
+export interface WheelLabelProps {
+  /** Wheel index: 0 FL, 1 FR, 2 RL, 3 RR. */
+  index: number;
+}
+
+/**
+ * The load on one tyre, as a scale under it would read, and as a share of its static load; placed
+ * over the tyre by <LabelProjector>. A lifted tyre says so in words.
+ */
+export function WheelLabel({ index }: WheelLabelProps) {
+  const api = useSceneApi();
+  const units = usePlumb((s) => s.units);
+  const w = usePlumb((s) => s.result.wheels[index]);
+  const name = WHEEL_NAMES[index];
+  const share = w.staticLoadN > 0 ? w.verticalLoadN / w.staticLoadN : 0;
+  return (
+    <div
+      ref={(el) => {
+        api.labels[index] = el;
+      }}
+      className={w.lifted ? 'wheel-label lifted' : 'wheel-label'}
+      data-testid={`wheel-load-${name}`}
+      data-lifted={w.lifted ? 'true' : 'false'}
+    >
+      <b>{name}</b> {w.lifted ? <strong className="lifted-word">LIFTED</strong> : null}{' '}
+      <span className="load-number">{scaleText(w.verticalLoadN, units)}</span>{' '}
+      <span className="load-share">{percentText(share)} of static</span>
+    </div>
+  );
+}

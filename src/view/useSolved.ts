@@ -1,0 +1,26 @@
+/**
+ * Transient updates: run `apply` with the state now and after every new result, then ask for one
+ * frame (frameloop="demand"). Scene objects are written through refs, so a drag re-solves and
+ * redraws without re-rendering React components.
+ */
+import { useLayoutEffect, useRef } from 'react';
+import { useThree } from '@react-three/fiber';
+import { usePlumbStore } from '../app/storeContext';
+import type { PlumbState } from '../store/store';
+
+export function useSolved(apply: (s: PlumbState) => void): void {
+  const store = usePlumbStore();
+  const invalidate = useThree((s) => s.invalidate);
+  const fn = useRef(apply);
+  fn.current = apply;
+  useLayoutEffect(() => {
+    fn.current(store.getState());
+    invalidate();
+    return store.subscribe((st, prev) => {
+      if (st.result !== prev.result || st.scenario !== prev.scenario) {
+        fn.current(st);
+        invalidate();
+      }
+    });
+  }, [store, invalidate]);
+}

@@ -1,0 +1,112 @@
+/**
+ * The demo library (assets/scenarios): every demo parses, stands at its pose, and runs every CLI
+ * command without error; together they use every terrain feature; and the report of each demo
+ * holds its headline numbers exactly as the CLI's --json gives them, the cautions, and no address
+ * that would load anything from outside the file.
+ */
+import { readdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { runCli } from '../../src/cli/main';
+import type { CliIO } from '../../src/cli/command';
+import { FEATURE_TYPES, parseScenarioText, REPORT_CAUTIONS, esc } from '../../src/core/index';
+
+const DIR = join(__dirname, '..', '..', 'assets', 'scenarios');
+const DEMOS = readdirSync(DIR).filter((f) => f.endsWith('.json')).sort();
+
+async function cli(...argv: string[]): Promise<{ code: number; out: string; err: string }> {
+  const out: string[] = [];
+  const err: string[] = [];
+  const io: CliIO = { out: (l) => void out.push(l), err: (l) => void err.push(l), readFile: (p) => readFileSync(p, 'utf8') };
+  const code = await runCli(argv, io);
+  return { code, out: out.join('\n'), err: err.join('\n') };
+}
+
+async function json(...argv: string[]): Promise<any> { // eslint-disable-line @typescript-eslint/no-explicit-any
+  const r = await cli(...argv, '--json');
+  expect(r.code, `${argv.join(' ')}: ${r.err}`).toBe(0);
+  return JSON.parse(r.out);
+}
+
+describe('demo library', () => {
+  it('has at least eight demos', () => expect(DEMOS.length).toBeGreaterThanOrEqual(8));
+
+  it('uses every terrain feature type, builds, both unit systems and paths', () => {
+    const used = new Set<string>();
+    let builds = 0, imperial = 0, paths = 0;
+    for (const f of DEMOS) {
+      const r = parseScenarioText(readFileSync(join(DIR, f), 'utf8'));
+      expect(r.ok).toBe(true);
+      if (!r.ok) continue;
+      for (const feat of r.scenario.terrain.features) used.add(feat.type);
+      if (r.scenario.builds && r.scenario.builds.length > 0) builds++;
+      if (r.scenario.units === 'imperial') imperial++;
+      if (r.scenario.path) paths++;
+    }
+    expect([...used].sort()).toEqual([...FEATURE_TYPES].sort());
+    expect(builds).toBeGreaterThanOrEqual(1);
+    expect(imperial).toBeGreaterThanOrEqual(1);
+    expect(paths).toBe(DEMOS.length);
+  });
+});
+
+describe.each(DEMOS)('demo %s', (name) => {
+  const file = join(DIR, name);
+
+  it('is invented data: its notes say so', () => {
+    const d = JSON.parse(readFileSync(file, 'utf8'));
+    expect(d.notes).toMatch(/invented/i);
+  });
+
+  it('stands at its pose (pose: converged)', async () => {
+    const p = await json('pose', file);
+    expect(p.status).toBe('converged');
+    for (const w of ['FL', 'FR', 'RL', 'RR']) expect(p.wheels[w].loadN).toBeGreaterThan(0);
+  });
+
+  it('runs check, rose, pass, lines and compare without error', async () => {
+    expect((await cli('check', file)).code).toBe(0);
+    const rose = await json('rose', file, '--quiet', '--step', '30');
+    expect(rose.directions.length).toBe(12);
+    const pass = await json('pass', file, '--quiet');
+    expect(pass.stations.length).toBeGreaterThan(1);
+    const lines = await cli('lines', file, '--quiet', '--json', '--offset', '0', '--heading', '0', '--workers', '0');
+    expect(lines.code, lines.err).toBe(0);
+    const s = parseScenarioText(readFileSync(file, 'utf8'));
+    if (s.ok && s.scenario.builds?.length) {
+      const cmp = await json('compare', file, '--quiet', '--rose-step', '30');
+      expect(cmp).toBeTruthy();
+    }
+  });
+
+  it('report holds the CLI --json headline numbers, the cautions, and no external address', async () => {
+    const tilts = await Promise.all(['front', 'rear', 'left', 'right'].map((d) => json('tilt', file, '--downhill', d)));
+    const rose = await json('rose', file, '--quiet');
+    const pass = await json('pass', file, '--quiet');
+    const r = await cli('report', file, '--date', '2031-04-05');
+    expect(r.code, r.err).toBe(0);
+    const html = r.out;
+    for (const t of tilts) {
+      // Same numbers as `tilt --json` (degrees to 4 decimals, as JavaScript writes them).
+      if (t.firstLift) expect(html).toContain(`${t.firstLift.wheel} at ${t.firstLift.angleDeg}°`);
+      if (t.tip) expect(html).toContain(`${t.tip.angleDeg}° over ${t.tip.edge.join('–')}`);
+    }
+    // `rose --json` (level tilt table, every 5°).
+    if (rose.weakest.tip) expect(html).toContain(`tips at ${rose.weakest.tip.angleDeg}° with downhill ${rose.weakest.downhillDeg}°`);
+    // `pass --json`.
+    if (pass.firstLift) expect(html).toContain(`${pass.firstLift.wheel} at ${pass.firstLift.distanceM} m`);
+    if (pass.firstUnload) expect(html).toContain(`${pass.firstUnload.wheel} at ${pass.firstUnload.distanceM} m`);
+    if (pass.minMargin) expect(html).toContain(`${pass.minMargin.forceAngleDeg}° at ${pass.minMargin.distanceM} m`);
+    if (pass.tip) expect(html).toContain(`at ${pass.tip.distanceM} m`);
+    // The cautions, at the top and at the bottom.
+    for (const c of REPORT_CAUTIONS) expect(html.split(esc(c)).length - 1).toBe(2);
+    expect(html.indexOf('id="caution-top"')).toBeLessThan(html.indexOf('id="scenario"'));
+    expect(html.indexOf('id="caution-bottom"')).toBeGreaterThan(html.indexOf('id="methods"'));
+    // Nothing loads from outside: no scheme, no protocol-relative address, no src/href, no script.
+    expect(html).not.toMatch(/https?:/i);
+    expect(html).not.toMatch(/\b(src|href|xlink:href)\s*=/i);
+    expect(html).not.toMatch(/<script|@import|url\(/i);
+    expect(html).not.toMatch(/=\s*["']\/\//);
+    expect(html).toContain('2031-04-05');
+  });
+});

@@ -1,0 +1,32 @@
+/** Launching the OS Chromium for the e2e tests and the benchmark (flags per shared/TOOLING.md). */
+import { chromium, type Browser, type Page } from 'playwright-core';
+
+export const CHROMIUM_PATH = '/usr/bin/chromium';
+
+export const CHROMIUM_ARGS = [
+  '--headless',
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-quic',
+  '--no-first-run',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+  '--use-gl=angle',
+  '--use-angle=swiftshader',
+  '--enable-unsafe-swiftshader',
+];
+
+export function launchChromium(): Promise<Browser> {
+  return chromium.launch({ executablePath: CHROMIUM_PATH, args: CHROMIUM_ARGS });
+}
+
+/** Console noise that is not a fault of the app (see shared/TOOLING.md). */
+export function isHarmless(text: string): boolean {
+  return /GPU stall due to ReadPixels|favicon|unexpected operator|THREE\.Clock|Clock: This module has been deprecated/i.test(text);
+}
+
+/** Waits until the app has drawn its first solved frame. */
+export async function waitForScene(page: Page): Promise<void> {
+  await page.waitForFunction(() => (window as unknown as { __plumbline?: { scene: { stats: { firstFrameMs: number | null } } | null } }).__plumbline?.scene?.stats.firstFrameMs != null, undefined, { timeout: 30_000 });
+}
