@@ -334,8 +334,10 @@ export interface TiltSweepOptions {
   readonly startAngleRad?: number;
   /** Largest tilt tried (rad). @default 89° */
   readonly maxAngleRad?: number;
-  /** Coarse step before bisection (rad). @default 1° */
+  /** Coarse step before bisection (rad). @default 2° */
   readonly stepRad?: number;
+  /** Look for the slide angle too (a rose does not need it). @default true */
+  readonly findSlide?: boolean;
   /** Bisection stops when the bracket is this narrow (rad). @default 0.01° */
   readonly resolutionRad?: number;
   /** Ground friction coefficient. @default 0.7 */

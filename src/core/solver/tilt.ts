@@ -12,7 +12,7 @@ import type { VehicleModel } from './model';
 
 const DEG = Math.PI / 180;
 /** Warm-started sweep steps converge in a few iterations where an equilibrium exists; more means none is near. */
-const SWEEP_MAX_ITERATIONS = 10;
+const SWEEP_MAX_ITERATIONS = 8;
 
 function maxDemand(r: SolveResult): number {
   let d = 0;
@@ -26,6 +26,13 @@ function standing(r: SolveResult): boolean {
 
 function anyLifted(r: SolveResult): boolean {
   return r.wheels.some((w) => w.lifted);
+}
+
+/** The lightest load among the wheels still down (N): falls to zero as the first wheel lifts. */
+function lightestLoad(r: SolveResult): number {
+  let m = Infinity;
+  for (const w of r.wheels) if (!w.lifted && w.loadN < m) m = w.loadN;
+  return m;
 }
 
 export function toSample(angleRad: number, r: SolveResult): TiltSample {
@@ -44,7 +51,8 @@ export function toSample(angleRad: number, r: SolveResult): TiltSample {
 export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOptions): TiltSweepResult {
   const start = opts.startAngleRad ?? 0;
   const maxAngle = opts.maxAngleRad ?? 89 * DEG;
-  const step = opts.stepRad ?? 1 * DEG;
+  const step = opts.stepRad ?? 2 * DEG;
+  const findSlide = opts.findSlide ?? true;
   const resolution = opts.resolutionRad ?? 0.01 * DEG;
   const friction = opts.friction ?? DEFAULT_FRICTION;
   const downhillRad = opts.downhillRad;
@@ -55,30 +63,61 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
     return r;
   };
   /**
-   * Solves at angleRad from a standing state at fromRad. A step that merely fails to converge
-   * while the plumb line is still well inside the support is a numerical miss, not a tip: it is
-   * retried in halves from the standing state (up to three levels).
+   * Narrows [lo, hi] (pred false at lo, true at hi) to the resolution. With an indicator that is
+   * positive on the standing side and falls to zero at the event (the lightest wheel's load, the
+   * grip left, the force-angle margin), the next angle is the secant estimate through the last two
+   * points below the event, aimed a quarter of the resolution either side of it, so that a good
+   * estimate closes the bracket in two solves; a step that does not halve the bracket falls back
+   * to bisection (safeguarded regula falsi).
    */
-  const stepTo = (angleRad: number, fromRad: number, from: SolveResult, depth = 0): SolveResult => {
-    const r = solveAt(angleRad, from.state);
-    if (standing(r) || r.status !== 'not-converged' || r.margins.forceAngleRad <= 0 || depth >= 3) return r;
-    const midRad = 0.5 * (fromRad + angleRad);
-    const mid = stepTo(midRad, fromRad, from, depth + 1);
-    return standing(mid) ? stepTo(angleRad, midRad, mid, depth + 1) : mid;
-  };
-  /** Narrows [lo, hi] (pred false at lo, true at hi) to the resolution. */
-  const bisect = (lo: number, loRes: SolveResult, hi: number, hiRes: SolveResult, pred: (r: SolveResult) => boolean) => {
+  const bisect = (
+    lo: number,
+    loRes: SolveResult,
+    hi: number,
+    hiRes: SolveResult,
+    pred: (r: SolveResult) => boolean,
+    indicator: ((r: SolveResult) => number) | null = null,
+    prevLo = NaN,
+    prevLoRes: SolveResult | null = null,
+    twoSided = false,
+  ) => {
+    let aimAbove = false;
+    let lastWidth = hi - lo;
+    let guided = indicator !== null;
     while (hi - lo > resolution) {
-      const mid = 0.5 * (lo + hi);
-      // Inside a narrow bracket the warm start is close: a failure there is taken as it is.
-      const r = solveAt(mid, loRes.state);
-      if (pred(r)) {
-        hi = mid;
-        hiRes = r;
-      } else {
-        lo = mid;
-        loRes = r;
+      let next = 0.5 * (lo + hi);
+      if (guided && indicator) {
+        let est = NaN;
+        const g2 = indicator(loRes);
+        if (twoSided) {
+          // Regula falsi between the two ends (the indicator is valid on both sides).
+          const gh = indicator(hiRes);
+          if (g2 > 0 && gh < 0) est = lo + (g2 * (hi - lo)) / (g2 - gh);
+        } else if (prevLoRes && prevLo < lo) {
+          // Secant through the last two points below the event.
+          const g1 = indicator(prevLoRes);
+          if (g1 > g2 && g2 > 0) est = lo + (g2 * (lo - prevLo)) / (g1 - g2);
+        }
+        const aim = est + (aimAbove ? 0.25 : -0.25) * resolution;
+        if (aim > lo && aim < hi) next = aim;
       }
+      // Inside a narrow bracket the warm start is close: a failure there is taken as it is.
+      const r = solveAt(next, loRes.state);
+      if (pred(r)) {
+        hi = next;
+        hiRes = r;
+        aimAbove = false;
+      } else {
+        prevLo = lo;
+        prevLoRes = loRes;
+        lo = next;
+        loRes = r;
+        aimAbove = true;
+      }
+      const width = hi - lo;
+      // Safeguard: two guided steps must at least halve the bracket, else bisect once.
+      guided = indicator !== null && width < 0.75 * lastWidth;
+      lastWidth = width;
     }
     return { angleRad: 0.5 * (lo + hi), lo, loRes, hi, hiRes };
   };
@@ -105,6 +144,8 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
 
   let prevAngle = start;
   let prev = solveAt(start, null);
+  let prev2Angle = NaN;
+  let prev2: SolveResult | null = null;
   samples.push(toSample(start, prev));
   if (!standing(prev)) {
     return { downhillRad, firstLift, tip: { angleRad: start, edge: prev.margins.weakestEdgeWheels }, slide, samples, evaluations };
@@ -116,36 +157,49 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
   if (maxDemand(prev) > friction) slide = { angleRad: start };
 
   while (prevAngle < maxAngle - 1e-12) {
-    const a = Math.min(prevAngle + step, maxAngle);
-    const cur = stepTo(a, prevAngle, prev);
+    let a = Math.min(prevAngle + step, maxAngle);
+    let cur = solveAt(a, prev.state);
+    if (!standing(cur) && cur.status === 'not-converged' && cur.margins.forceAngleRad > 0) {
+      // A step that merely fails to converge with the plumb line well inside the support may be
+      // a numerical miss rather than the tip: try half the step. If that stands, it becomes the
+      // next sample; if not, the tip lies below it.
+      const half = 0.5 * (prevAngle + a);
+      const mid = solveAt(half, prev.state);
+      if (standing(mid) || a - prevAngle > 4 * resolution) {
+        a = half;
+        cur = mid;
+      }
+    }
     if (standing(cur)) {
       if (!firstLift && anyLifted(cur)) {
-        const b = bisect(prevAngle, prev, a, cur, anyLifted);
+        const b = bisect(prevAngle, prev, a, cur, anyLifted, lightestLoad, prev2Angle, prev2);
         firstLift = { wheel: liftedWheel(b.loRes, b.hiRes), angleRad: b.angleRad };
       }
-      if (!slide && maxDemand(cur) > friction) {
-        const b = bisect(prevAngle, prev, a, cur, (r) => standing(r) && maxDemand(r) > friction);
+      if (findSlide && !slide && maxDemand(cur) > friction) {
+        const b = bisect(prevAngle, prev, a, cur, (r) => standing(r) && maxDemand(r) > friction, (r) => friction - maxDemand(r), prev2Angle, prev2, true);
         slide = { angleRad: b.angleRad };
       }
       samples.push(toSample(a, cur));
+      prev2Angle = prevAngle;
+      prev2 = prev;
       prevAngle = a;
       prev = cur;
       continue;
     }
     // No equilibrium at a: bisect for the tip.
-    const b = bisect(prevAngle, prev, a, cur, (r) => !standing(r));
+    const b = bisect(prevAngle, prev, a, cur, (r) => !standing(r), (r) => r.margins.forceAngleRad, prev2Angle, prev2);
     tip = { angleRad: b.angleRad, edge: b.loRes.margins.weakestEdgeWheels };
     if (!firstLift) {
       // Every lift came with the tip (a stiff vehicle): the wheels lift as it goes over.
       if (anyLifted(b.loRes)) {
-        const lifted = bisect(prevAngle, prev, b.lo, b.loRes, anyLifted);
+        const lifted = bisect(prevAngle, prev, b.lo, b.loRes, anyLifted, lightestLoad, prev2Angle, prev2);
         firstLift = { wheel: liftedWheel(lifted.loRes, lifted.hiRes), angleRad: lifted.angleRad };
       } else {
         firstLift = { wheel: liftedWheel(b.loRes, b.loRes), angleRad: b.angleRad };
       }
     }
-    if (!slide && maxDemand(b.loRes) > friction) {
-      const s = bisect(prevAngle, prev, b.lo, b.loRes, (r) => maxDemand(r) > friction);
+    if (findSlide && !slide && maxDemand(b.loRes) > friction) {
+      const s = bisect(prevAngle, prev, b.lo, b.loRes, (r) => maxDemand(r) > friction, (r) => friction - maxDemand(r), prev2Angle, prev2, true);
       slide = { angleRad: s.angleRad };
     }
     samples.push(toSample(b.lo, b.loRes));
