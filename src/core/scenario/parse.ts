@@ -8,6 +8,7 @@
  * inherited is ever read and nothing is polluted; (2) the zod schema for the file's unit system;
  * (3) checks across fields; (4) conversion to SI with the defaults applied in one place.
  */
+import { migrateScenario } from './migrate';
 import type { AxleSuspension, BodyShape, PathSpec, PayloadItem, TerrainFeature, TyreSpec, Vehicle } from '../model/types';
 import type { ParseResult, Scenario, ScenarioError, UnitSystem } from './types';
 import {
@@ -481,7 +482,11 @@ export function parseScenario(input: unknown): ParseResult {
   try {
     const errors: ScenarioError[] = [];
     const blocked: string[] = [];
-    const data = toPlainData(input, [], errors, blocked, []);
+    const plain = toPlainData(input, [], errors, blocked, []);
+    // Older files are brought up to the current format version first (migrate.ts).
+    const migrated = migrateScenario(plain);
+    if (!migrated.ok) return { ok: false, errors: migrated.errors };
+    const data = migrated.file;
     if (data !== undefined && !isPlainObject(data) && blocked.length === 0) {
       return { ok: false, errors: [{ path: '(file)', message: `must be a JSON object, got ${describeValue(data)}` }] };
     }
@@ -507,7 +512,7 @@ export function parseScenario(input: unknown): ParseResult {
     crossChecks(data, units, errors);
     buildsCrossChecks(data, errors);
     if (errors.length > 0 || !result.success) return { ok: false, errors: dedupe(errors) };
-    const warnings: string[] = [];
+    const warnings: string[] = [...migrated.warnings];
     const scenario = toScenario(result.data, warnings);
     return { ok: true, scenario, warnings };
   } catch (e) {
