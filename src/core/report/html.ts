@@ -23,6 +23,24 @@ export interface ReportMeta {
   readonly dateText: string;
   /** Name of the scenario file, shown in the header. @default none */
   readonly fileName?: string;
+  /**
+   * A picture of the 3D view (the web app's canvas) as a `data:image/png;base64,…` or
+   * `data:image/jpeg;base64,…` URL, shown in its own section; anything else is left out, so the
+   * report never refers to an outside address. @default none
+   */
+  readonly sceneImageDataUrl?: string;
+}
+
+/** A data: URL of a PNG or JPEG image in base64 (nothing that could load from elsewhere). */
+const SCENE_IMAGE_URL = /^data:image\/(?:png|jpeg);base64,[A-Za-z0-9+/]+=*$/;
+
+function sceneImageSection(url: string): string {
+  return (
+    '<section id="scene-view"><h2>The 3D view</h2>' +
+    '<p>The web app\'s 3D view as it was on screen when this report was made (it may show another pose than the drawing below).</p>' +
+    `<figure><img src="${url}" alt="The 3D view of the vehicle on the terrain" style="max-width:100%;height:auto;border:0.5pt solid #888"></figure>` +
+    '</section>'
+  );
 }
 
 /**
@@ -523,6 +541,7 @@ export function renderReportHtml(d: ReportData, meta: ReportMeta): string {
     scenarioSection(d, u),
     roseSection(d),
   ];
+  if (meta.sceneImageDataUrl && SCENE_IMAGE_URL.test(meta.sceneImageDataUrl)) parts.push(sceneImageSection(meta.sceneImageDataUrl));
   if (d.pass) parts.push(passSection(d, u));
   parts.push(drawingSection(d, u));
   if (d.builds) parts.push(buildsSection(d.builds, u));

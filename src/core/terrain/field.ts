@@ -203,59 +203,116 @@ export class TerrainField {
   }
 
   /**
-   * An upper bound on the terrain height over the rectangle, from the listed features (their
-   * heights add, so the sum of each one's maximum bounds the total). Lets the tyre skip springs
-   * whose tread point lies above all the ground near it without sampling the terrain.
+   * An upper bound on the terrain height over the rectangle, as a plane: H(x, y) ≤ out[2] +
+   * out[0]·x + out[1]·y everywhere in it. Planes enter exactly; every other feature adds its
+   * largest height over the rectangle (their heights add, so the sum bounds the total). Lets the
+   * tyre skip springs whose tread point lies above all the ground near it without sampling it.
    */
-  maxHeightIn(list: Int32Array, count: number, xmin: number, xmax: number, ymin: number, ymax: number): number {
-    let total = 0;
+  boundIn(list: Int32Array, count: number, xmin: number, xmax: number, ymin: number, ymax: number, out: Float64Array): void {
+    let gx = 0;
+    let gy = 0;
+    let h = 0;
     const P = this.params;
     for (let li = 0; li < count; li++) {
       const i = list[li];
       const p = i * STRIDE;
       switch (this.types[i]) {
-        case T_PLANE: {
-          const gx = P[p], gy = P[p + 1];
-          total += P[p + 2] + (gx > 0 ? gx * xmax : gx * xmin) + (gy > 0 ? gy * ymax : gy * ymin);
+        case T_PLANE:
+          gx += P[p];
+          gy += P[p + 1];
+          h += P[p + 2];
           break;
-        }
         case T_STEP:
-          total += Math.max(0, P[p + 1]);
+          h += Math.max(0, P[p + 1]);
           break;
         case T_BLOCK:
-          total += Math.max(0, P[p + 4]);
+          h += Math.max(0, P[p + 4]);
           break;
         case T_ROCK:
-          total += Math.max(0, P[p + 2]);
+          h += Math.max(0, P[p + 2]);
           break;
         case T_RAMP:
-          total += Math.max(0, P[p + 1] * P[p + 2]);
+          h += Math.max(0, P[p + 1] * P[p + 2]);
           break;
         case T_PROFILE:
-        case T_GRID: {
-          total += this.maxData(i);
+          h += this.profileMax(i, xmin, xmax, ymin, ymax);
           break;
-        }
+        case T_GRID:
+          h += this.gridMax(i, xmin, xmax, ymin, ymax);
+          break;
       }
     }
-    return total;
+    out[0] = gx;
+    out[1] = gy;
+    out[2] = h;
+  }
+
+  /** Largest height of a profile over the rectangle (0 counts: outside a bounded profile it adds 0). */
+  private profileMax(i: number, xmin: number, xmax: number, ymin: number, ymax: number): number {
+    const pts = this.data[i] as Float64Array;
+    const p = i * STRIDE;
+    const alongX = this.params[p] === 0;
+    const lo = alongX ? xmin : ymin;
+    const hi = alongX ? xmax : ymax;
+    const np = this.params[p + 1];
+    let m = 0;
+    // Ends are held level beyond the points; the segment ends inside [lo, hi] and the values at lo
+    // and hi bound a piecewise-linear profile.
+    for (let k = 0; k < np; k++) {
+      const sk = pts[2 * k];
+      if (sk >= lo && sk <= hi && pts[2 * k + 1] > m) m = pts[2 * k + 1];
+    }
+    const at = (v: number): number => {
+      if (v <= pts[0]) return pts[1];
+      if (v >= pts[2 * (np - 1)]) return pts[2 * (np - 1) + 1];
+      let a = 0;
+      let b = np - 1;
+      while (b - a > 1) {
+        const mid = (a + b) >> 1;
+        if (pts[2 * mid] <= v) a = mid;
+        else b = mid;
+      }
+      const t = (v - pts[2 * a]) / (pts[2 * b] - pts[2 * a] || 1);
+      return pts[2 * a + 1] + t * (pts[2 * b + 1] - pts[2 * a + 1]);
+    };
+    return Math.max(m, at(lo), at(hi));
+  }
+
+  /** Grid cells read at most for a local maximum; beyond it the whole grid's maximum is used. */
+  private static readonly GRID_LOCAL_CELLS = 1024;
+
+  /** Largest height of a grid over the rectangle (its nodes there and the edge values held outside). */
+  private gridMax(i: number, xmin: number, xmax: number, ymin: number, ymax: number): number {
+    const p = i * STRIDE;
+    const P = this.params;
+    const sp = P[p + 2];
+    const cols = P[p + 3];
+    const rows = P[p + 4];
+    const c0 = Math.max(0, Math.min(cols - 1, Math.floor((xmin - P[p]) / sp)));
+    const c1 = Math.max(0, Math.min(cols - 1, Math.ceil((xmax - P[p]) / sp)));
+    const r0 = Math.max(0, Math.min(rows - 1, Math.floor((ymin - P[p + 1]) / sp)));
+    const r1 = Math.max(0, Math.min(rows - 1, Math.ceil((ymax - P[p + 1]) / sp)));
+    if ((c1 - c0 + 1) * (r1 - r0 + 1) > TerrainField.GRID_LOCAL_CELLS) return this.maxData(i);
+    const hs = this.data[i] as Float64Array;
+    let m = -Infinity;
+    for (let r = r0; r <= r1; r++) {
+      for (let c = c0; c <= c1; c++) {
+        const v = hs[r * cols + c];
+        if (v > m) m = v;
+      }
+    }
+    return m;
   }
 
   private readonly dataMax = new Map<number, number>();
 
-  /** Largest height of a profile or grid (held at 0 from below: outside a bounded profile it adds 0). */
+  /** Largest height of a grid, computed once. */
   private maxData(i: number): number {
     let m = this.dataMax.get(i);
     if (m === undefined) {
       const d = this.data[i] as Float64Array;
-      m = 0;
-      if (this.types[i] === T_PROFILE) {
-        for (let k = 1; k < d.length; k += 2) if (d[k] > m) m = d[k];
-      } else {
-        m = -Infinity;
-        for (let k = 0; k < d.length; k++) if (d[k] > m) m = d[k];
-        // A grid covers everywhere (edge values held), so its own maximum is the bound, even if negative.
-      }
+      m = -Infinity;
+      for (let k = 0; k < d.length; k++) if (d[k] > m) m = d[k];
       this.dataMax.set(i, m);
     }
     return m;

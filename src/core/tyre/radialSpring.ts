@@ -36,6 +36,8 @@ export interface TyreLayout {
   /** Slice weights, summing to 1. */
   readonly sliceWeight: Float64Array;
   readonly rays: number;
+  /** Angle between neighbouring springs (rad); spring k is at ψ = (k − (rays − 1)/2)·psiStepRad. */
+  readonly psiStepRad: number;
   readonly raySin: Float64Array;
   readonly rayCos: Float64Array;
 }
@@ -66,7 +68,7 @@ export function makeTyreLayout(opts: TyreModelOptions = DEFAULT_TYRE_MODEL): Tyr
     raySin[k] = Math.sin(psi);
     rayCos[k] = Math.cos(psi);
   }
-  return { slices: ns, sliceFraction, sliceWeight, rays, raySin, rayCos };
+  return { slices: ns, sliceFraction, sliceWeight, rays, psiStepRad: half / perSide, raySin, rayCos };
 }
 
 /**
@@ -215,25 +217,18 @@ export class TyreContact {
 }
 
 const _grad = new Float64Array(2);
+const _bound = new Float64Array(3);
 /** Per-spring scratch for one slice: compression, its gradient, ground point and normal. */
 let _rayD = new Float64Array(0);
 let _rayG = new Float64Array(0);
 let _rayHit = new Float64Array(0);
 let _rayN = new Float64Array(0);
-/** Component c of ρ_k (e_k × G_k) for ray k of the current slice (ρ from its compression). */
-function turnOf(
-  k: number, layout: TyreLayout, fx: number, fy: number, fz: number, ux: number, uy: number, uz: number, R: number, c: number,
-): number {
-  const sn = layout.raySin[k];
-  const cs = layout.rayCos[k];
-  const ex = sn * fx - cs * ux;
-  const ey = sn * fy - cs * uy;
-  const ez = sn * fz - cs * uz;
-  const gx = _rayG[3 * k], gy = _rayG[3 * k + 1], gz = _rayG[3 * k + 2];
-  const rho = R - _rayD[k];
-  if (c === 0) return rho * (ey * gz - ez * gy);
-  if (c === 1) return rho * (ez * gx - ex * gz);
-  return rho * (ex * gy - ey * gx);
+/** Ray directions of the current wheel's fan (shared by its slices) and each ray's turn vector ρ (e × G). */
+let _rayE = new Float64Array(0);
+let _rayT = new Float64Array(0);
+/** Whether ray r's tread point lies at or below the ground bound plane (so the ray may touch). */
+function tipUnderBound(E: Float64Array, r: number, sx: number, sy: number, sz: number, R: number, bh: number, bgx: number, bgy: number): boolean {
+  return sz + R * E[3 * r + 2] <= bh + bgx * (sx + R * E[3 * r]) + bgy * (sy + R * E[3 * r + 1]);
 }
 
 function ensureRayScratch(rays: number): void {
@@ -242,6 +237,8 @@ function ensureRayScratch(rays: number): void {
   _rayG = new Float64Array(3 * rays);
   _rayHit = new Float64Array(3 * rays);
   _rayN = new Float64Array(3 * rays);
+  _rayE = new Float64Array(3 * rays);
+  _rayT = new Float64Array(3 * rays);
 }
 
 /**
@@ -293,9 +290,21 @@ export function evaluateTyre(
   let loaded = 0;
   // Springs whose tread point is above every bit of ground near the tyre cannot touch: skip them.
   const reach = R + widthM;
-  const groundMax = field.maxHeightIn(features, featureCount, cx - reach, cx + reach, cy - reach, cy + reach);
+  field.boundIn(features, featureCount, cx - reach, cx + reach, cy - reach, cy + reach, _bound);
+  const bgx = _bound[0];
+  const bgy = _bound[1];
+  const bh = _bound[2];
 
   ensureRayScratch(layout.rays);
+  const E = _rayE;
+  const TV = _rayT;
+  for (let k = 0; k < layout.rays; k++) {
+    const sn = layout.raySin[k];
+    const cs = layout.rayCos[k];
+    E[3 * k] = sn * fx - cs * ux;
+    E[3 * k + 1] = sn * fy - cs * uy;
+    E[3 * k + 2] = sn * fz - cs * uz;
+  }
   const D = _rayD;
   const G = _rayG;
   const Hp = _rayHit;
@@ -314,30 +323,69 @@ export function evaluateTyre(
 
     // Pass 1: each spring's signed compression d_k along its ray (negative: the gap, estimated from
     // the tread point), its gradient ∂d_k/∂c = m / (m·e) and where it meets the ground.
-    for (let k = 0; k < layout.rays; k++) {
-      const sn = layout.raySin[k];
-      const cs = layout.rayCos[k];
-      const ex = sn * fx - cs * ux;
-      const ey = sn * fy - cs * uy;
-      const ez = sn * fz - cs * uz;
+    let kFirst = -1;
+    let kLast = -2;
+    const rays = layout.rays;
+    // The tread point's height above the bound plane, C − M cos(ψ − ψ*), is a sinusoid in ψ: the
+    // springs that may touch form one arc around ψ*. Only that arc and one spring either side are
+    // visited (the rest cannot touch and bear nothing).
+    const nbx = -bgx;
+    const nby = -bgy;
+    const nbn = Math.sqrt(nbx * nbx + nby * nby + 1);
+    const Cq = (sz - bh - bgx * sx - bgy * sy) / nbn;
+    const Aq = (fx * nbx + fy * nby + fz) / nbn;
+    const Bq = (ux * nbx + uy * nby + uz) / nbn;
+    const Mq = R * Math.sqrt(Aq * Aq + Bq * Bq);
+    let kBegin = 0;
+    let kEnd = -1;
+    if (Cq <= Mq) {
+      const psiStar = Math.atan2(-Aq, Bq);
+      const halfArc = Math.acos(Math.max(-1, Cq / Mq));
+      const mid = (rays - 1) / 2;
+      kBegin = Math.max(0, Math.floor((psiStar - halfArc) / layout.psiStepRad + mid) - 1);
+      kEnd = Math.min(rays - 1, Math.ceil((psiStar + halfArc) / layout.psiStepRad + mid) + 1);
+    }
+    for (let k = kBegin - 1 >= 0 ? kBegin - 1 : 0; k < kBegin; k++) D[k] = -R;
+    if (kEnd < kBegin) {
+      for (let k = 0; k < rays; k++) D[k] = -R;
+    }
+    for (let k = kEnd + 1; k < rays && k <= kEnd + 1; k++) D[k] = -R;
+    for (let k = kBegin; k <= kEnd; k++) {
+      const ez = E[3 * k + 2];
       const tipZ = sz + R * ez;
-      G[3 * k] = 0;
-      G[3 * k + 1] = 0;
-      G[3 * k + 2] = 0;
+      // Height of the ground bound (a plane over the tyre's neighbourhood) under this tread point.
+      const groundMax = bh + bgx * (sx + R * E[3 * k]) + bgy * (sy + R * E[3 * k + 1]);
       if (tipZ > groundMax) {
-        // Above all the ground near the tyre: the gap along the ray to the level of the highest
-        // ground (exact for level ground), and its gradient.
+        // Above all the ground near the tyre. Only a neighbour of a spring that may touch needs
+        // its gap (for the interval between them); the rest are left out altogether.
+        const nearLow =
+          (k > 0 && tipUnderBound(E, k - 1, sx, sy, sz, R, bh, bgx, bgy)) ||
+          (k + 1 < rays && tipUnderBound(E, k + 1, sx, sy, sz, R, bh, bgx, bgy));
+        G[3 * k] = 0;
+        G[3 * k + 1] = 0;
+        if (!nearLow) {
+          D[k] = -R;
+          G[3 * k + 2] = 0;
+          Nm[3 * k + 2] = 0;
+          continue;
+        }
+        // The gap along the ray down to the level of the highest ground (exact for level ground).
         const down = ez < -GRAZING_MIN ? ez : -GRAZING_MIN;
         D[k] = (tipZ - groundMax) / down;
         G[3 * k + 2] = 1 / down;
-        Hp[3 * k] = sx + R * ex;
-        Hp[3 * k + 1] = sy + R * ey;
+        Hp[3 * k] = sx + R * E[3 * k];
+        Hp[3 * k + 1] = sy + R * E[3 * k + 1];
         Hp[3 * k + 2] = tipZ;
         Nm[3 * k] = 0;
         Nm[3 * k + 1] = 0;
         Nm[3 * k + 2] = 1;
         continue;
       }
+      const ex = E[3 * k];
+      const ey = E[3 * k + 1];
+      G[3 * k] = 0;
+      G[3 * k + 1] = 0;
+      G[3 * k + 2] = 0;
       const gR = tipZ - field.sampleIn(features, featureCount, sx + R * ex, sy + R * ey, _grad);
       let mx = -_grad[0];
       let my = -_grad[1];
@@ -387,6 +435,8 @@ export function evaluateTyre(
         my = -_grad[1];
       }
       D[k] = R - rho;
+      if (kFirst < 0) kFirst = k;
+      kLast = k;
       // dδ/dc = m / (m·e) with m = (−Hx, −Hy, 1) the unnormalised ground normal at the hit.
       const mn = Math.sqrt(mx * mx + my * my + 1);
       let me = mx * ex + my * ey + ez;
@@ -418,8 +468,19 @@ export function evaluateTyre(
     let nzs = 0;
     // Pass 2: integrate the compressions over the tread (segment by segment) into the slice's
     // force, its stiffness, the centre of pressure and the mean ground normal.
-    {
-      for (let k = 0; k + 1 < layout.rays; k++) {
+    // Turn vectors ρ_k (e_k × G_k) of the rays that can bear: the contact range and one either side.
+    const kLo = kFirst > 0 ? kFirst - 1 : 0;
+    const kHi = kLast + 1 < layout.rays ? kLast + 1 : layout.rays - 1;
+    for (let k = kLo; k <= kHi && kFirst >= 0; k++) {
+      const ex = E[3 * k], ey = E[3 * k + 1], ez = E[3 * k + 2];
+      const gx = G[3 * k], gy = G[3 * k + 1], gz = G[3 * k + 2];
+      const rho = R - D[k];
+      TV[3 * k] = rho * (ey * gz - ez * gy);
+      TV[3 * k + 1] = rho * (ez * gx - ex * gz);
+      TV[3 * k + 2] = rho * (ex * gy - ey * gx);
+    }
+    if (kFirst >= 0) {
+      for (let k = kLo; k < kHi; k++) {
         const A = D[k];
         const B = D[k + 1];
         if (A <= 0 && B <= 0) continue;
@@ -429,11 +490,9 @@ export function evaluateTyre(
           const w = _seg[side];
           const dA = _seg[2 + 2 * side];
           const dB = _seg[3 + 2 * side];
-          const sn = layout.raySin[r];
-          const cs = layout.rayCos[r];
-          const ex = sn * fx - cs * ux;
-          const ey = sn * fy - cs * uy;
-          const ez = sn * fz - cs * uz;
+          const ex = E[3 * r];
+          const ey = E[3 * r + 1];
+          const ez = E[3 * r + 2];
           const fk = rate * w;
           Fx -= fk * ex;
           Fy -= fk * ey;
@@ -452,9 +511,9 @@ export function evaluateTyre(
           k21 -= rate * ez * vy;
           k22 -= rate * ez * vz;
           // Turning the fan by ω moves each ray: ∂d_b/∂ω = ρ_b (e_b × G_b).
-          const tx = dA * turnOf(k, layout, fx, fy, fz, ux, uy, uz, R, 0) + dB * turnOf(k + 1, layout, fx, fy, fz, ux, uy, uz, R, 0);
-          const ty = dA * turnOf(k, layout, fx, fy, fz, ux, uy, uz, R, 1) + dB * turnOf(k + 1, layout, fx, fy, fz, ux, uy, uz, R, 1);
-          const tz = dA * turnOf(k, layout, fx, fy, fz, ux, uy, uz, R, 2) + dB * turnOf(k + 1, layout, fx, fy, fz, ux, uy, uz, R, 2);
+          const tx = dA * TV[3 * k] + dB * TV[3 * k + 3];
+          const ty = dA * TV[3 * k + 1] + dB * TV[3 * k + 4];
+          const tz = dA * TV[3 * k + 2] + dB * TV[3 * k + 5];
           r00 -= rate * ex * tx;
           r01 -= rate * ex * ty;
           r02 -= rate * ex * tz;
