@@ -82,8 +82,10 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
     twoSided = false,
   ) => {
     let aimAbove = false;
-    let lastWidth = hi - lo;
     let guided = indicator !== null;
+    /** Consecutive guided steps that landed on the same side of the event (a biased estimate). */
+    let sameSide = 0;
+    let lastSideHigh: boolean | null = null;
     while (hi - lo > resolution) {
       let next = 0.5 * (lo + hi);
       if (guided && indicator) {
@@ -101,9 +103,11 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
         const aim = est + (aimAbove ? 0.25 : -0.25) * resolution;
         if (aim > lo && aim < hi) next = aim;
       }
+      const wasGuided = next !== 0.5 * (lo + hi);
       // Inside a narrow bracket the warm start is close: a failure there is taken as it is.
       const r = solveAt(next, loRes.state);
-      if (pred(r)) {
+      const high = pred(r);
+      if (high) {
         hi = next;
         hiRes = r;
         aimAbove = false;
@@ -114,10 +118,17 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
         loRes = r;
         aimAbove = true;
       }
-      const width = hi - lo;
-      // Safeguard: two guided steps must at least halve the bracket, else bisect once.
-      guided = indicator !== null && width < 0.75 * lastWidth;
-      lastWidth = width;
+      // Safeguard: guided steps should land either side of the event in turn; three in a row on
+      // one side mean a biased estimate, so bisect once before guiding again.
+      if (wasGuided) {
+        sameSide = lastSideHigh === high ? sameSide + 1 : 1;
+        lastSideHigh = high;
+        guided = sameSide < 3;
+      } else {
+        sameSide = 0;
+        lastSideHigh = null;
+        guided = indicator !== null;
+      }
     }
     return { angleRad: 0.5 * (lo + hi), lo, loRes, hi, hiRes };
   };
