@@ -226,6 +226,12 @@ export interface SolveOptions {
   readonly tolerance?: number;
   /** Start from this state (from a previous result's `state`) instead of the ride-height guess. */
   readonly warmStart?: Float64Array | null;
+  /**
+   * Only the fast iteration: no fallback to the full-equation Jacobian, no eased cold start. For
+   * searches that bracket an event from a close warm start, where a miss is cheap to take.
+   * @default false
+   */
+  readonly quick?: boolean;
 }
 
 export interface WheelResult {

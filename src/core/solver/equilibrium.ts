@@ -293,8 +293,9 @@ export function solveEquilibrium(model: VehicleModel, pose: Pose, options: Solve
     return collect(model, x, _r, 'no-contact', 0, 'gravity does not press the vehicle onto the ground: tilted to 90° or beyond', friction);
   }
 
-  let out = newton(model, x, tol, maxIt);
-  if (out.status !== 'converged' && !warm) {
+  const quick = options.quick === true;
+  let out = newton(model, x, tol, maxIt, !quick);
+  if (out.status !== 'converged' && !warm && !quick) {
     // A hard cold start (stiff tyres, a big tilt): ease into it. Start untilted on softened tyres
     // and step to the real tilt and stiffness, warm-starting each step; keep the first answer if
     // that fails too (a real tip stays a tip).
@@ -339,7 +340,7 @@ interface NewtonOutcome {
 }
 
 /** Newton iterations from x (updated in place); on return the model's buffers hold x's full evaluation and _r its residual. */
-function newton(model: VehicleModel, x: Float64Array, tol: number, maxIt: number): NewtonOutcome {
+function newton(model: VehicleModel, x: Float64Array, tol: number, maxIt: number, allowFull = true): NewtonOutcome {
   model.residual(x, true, _r);
   let n2 = norm2(_r);
   let status: SolveStatus = 'not-converged';
@@ -424,6 +425,11 @@ function newton(model: VehicleModel, x: Float64Array, tol: number, maxIt: number
       _r.set(_rt);
       continue;
     }
+    if (!accepted && !allowFull) {
+      reason = `no equilibrium nearby: the Newton step found no decrease (scaled ${maxAbs(_r).toExponential(2)})`;
+      model.residual(x, true, _r);
+      break;
+    }
     if (!accepted) {
       // No decrease along the Newton direction: take a damped least-squares step instead.
       let lambda = 1e-2;
@@ -447,7 +453,7 @@ function newton(model: VehicleModel, x: Float64Array, tol: number, maxIt: number
       stalls++;
       // Keep the model's buffers on x itself.
       model.residual(x, true, _r);
-      if (!fullJacobian) {
+      if (!fullJacobian && allowFull) {
         fullJacobian = true;
         stalls = 0;
         checkpoint = n2;
@@ -466,11 +472,11 @@ function newton(model: VehicleModel, x: Float64Array, tol: number, maxIt: number
     if (n2 < 0.25 * checkpoint) {
       checkpoint = n2;
       checkpointIt = it;
-    } else if (it - checkpointIt >= PROGRESS_WINDOW && !fullJacobian) {
+    } else if (it - checkpointIt >= PROGRESS_WINDOW && !fullJacobian && allowFull) {
       fullJacobian = true;
       checkpoint = n2;
       checkpointIt = it;
-    } else if (it - checkpointIt >= FULL_PROGRESS_WINDOW) {
+    } else if (it - checkpointIt >= (fullJacobian ? FULL_PROGRESS_WINDOW : PROGRESS_WINDOW)) {
       reason = `no equilibrium nearby: the residual stopped falling (scaled ${maxAbs(_r).toExponential(2)})`;
       break;
     }

@@ -13,6 +13,8 @@ import type { VehicleModel } from './model';
 const DEG = Math.PI / 180;
 /** Warm-started sweep steps converge in a few iterations where an equilibrium exists; more means none is near. */
 const SWEEP_MAX_ITERATIONS = 8;
+/** Brackets narrower than this are searched with the quick iteration only (rad, 0.25°). */
+const QUICK_BRACKET_RAD = 0.25 * DEG;
 
 function maxDemand(r: SolveResult): number {
   let d = 0;
@@ -57,8 +59,14 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
   const friction = opts.friction ?? DEFAULT_FRICTION;
   const downhillRad = opts.downhillRad;
   let evaluations = 0;
-  const solveAt = (angleRad: number, warm: Float64Array | null): SolveResult => {
-    const r = solveEquilibrium(model, pose, { tilt: { angleRad, downhillRad }, friction, warmStart: warm, maxIterations: warm ? SWEEP_MAX_ITERATIONS : undefined });
+  const solveAt = (angleRad: number, warm: Float64Array | null, quick = false): SolveResult => {
+    const r = solveEquilibrium(model, pose, {
+      tilt: { angleRad, downhillRad },
+      friction,
+      warmStart: warm,
+      maxIterations: warm ? SWEEP_MAX_ITERATIONS : undefined,
+      quick,
+    });
     evaluations += r.evaluations;
     return r;
   };
@@ -104,8 +112,9 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
         if (aim > lo && aim < hi) next = aim;
       }
       const wasGuided = next !== 0.5 * (lo + hi);
-      // Inside a narrow bracket the warm start is close: a failure there is taken as it is.
-      const r = solveAt(next, loRes.state);
+      // Inside a narrow bracket the warm start is close: a failure there is taken as it is, and
+      // once the bracket is narrow the quick iteration alone decides (a miss costs little there).
+      const r = solveAt(next, loRes.state, hi - lo < QUICK_BRACKET_RAD);
       const high = pred(r);
       if (high) {
         hi = next;
@@ -118,12 +127,13 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
         loRes = r;
         aimAbove = true;
       }
-      // Safeguard: guided steps should land either side of the event in turn; three in a row on
-      // one side mean a biased estimate, so bisect once before guiding again.
+      // Safeguard: guided steps should land either side of the event in turn. Two in a row past
+      // it (the costly side: no equilibrium there) or three short of it mean a biased estimate,
+      // so bisect once before guiding again.
       if (wasGuided) {
         sameSide = lastSideHigh === high ? sameSide + 1 : 1;
         lastSideHigh = high;
-        guided = sameSide < 3;
+        guided = sameSide < (high ? 2 : 3);
       } else {
         sameSide = 0;
         lastSideHigh = null;
