@@ -222,7 +222,7 @@ export interface SolveOptions {
   readonly friction?: number;
   /** Newton iteration cap. @default 60 */
   readonly maxIterations?: number;
-  /** Bound on the scaled residual (forces / weight, moments / (weight · wheelbase)). @default 1e-9 */
+  /** Bound on the scaled residual (forces / weight, moments / (weight · wheelbase)). @default 1e-7 (ten times inside the 1e-6·W bound the results promise) */
   readonly tolerance?: number;
   /** Start from this state (from a previous result's `state`) instead of the ride-height guess. */
   readonly warmStart?: Float64Array | null;

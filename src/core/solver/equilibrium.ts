@@ -34,7 +34,7 @@ import {
   rigidStaticLoads,
 } from './model';
 
-export const DEFAULT_TOLERANCE = 1e-8;
+export const DEFAULT_TOLERANCE = 1e-7;
 export const DEFAULT_MAX_ITERATIONS = 60;
 export const DEFAULT_FRICTION = 0.7;
 /** Largest change per Newton step: heave (m), rotations (rad), travel (m), grip field (–). */
