@@ -7,7 +7,7 @@
 import { availableParallelism } from 'node:os';
 import { Worker } from 'node:worker_threads';
 import { createRequire } from 'node:module';
-import { pathToFileURL } from 'node:url';
+import { fileURLToPath, pathToFileURL } from 'node:url';
 import { runLineSweepJob, stationCount, type LineSummary, type LineSweepJob } from '../core/index';
 
 export interface ParallelOptions {
@@ -27,8 +27,8 @@ export interface ParallelResult {
   readonly fallbackReason: string | null;
 }
 
-/** Below this many stations in all (a few seconds of work on one core) the sweep runs in-process. */
-export const PARALLEL_MIN_STATIONS = 20_000;
+/** Below this many stations in all (well under a second of work) the sweep runs in-process. */
+export const PARALLEL_MIN_STATIONS = 2_000;
 
 function totalStations(job: LineSweepJob): number {
   let n = 0;
@@ -39,13 +39,33 @@ function totalStations(job: LineSweepJob): number {
 /** Time a worker may take to load and build the model before the sweep falls back (ms). */
 const WORKER_START_TIMEOUT_MS = 20_000;
 
+let bundledWorker: string | null | undefined;
+
 /**
- * The worker entry is TypeScript, so the thread loads it through tsx's API, as `npm run cli` runs
- * main.ts. (Node 20 does not apply `--import tsx` loader hooks to worker threads, so the usual
- * `execArgv: ['--import', 'tsx']` gives "Unknown file extension .ts" there.) A small bootstrap,
- * evaluated in the thread, imports tsx's API by absolute path and then the entry.
+ * The worker's code, bundled once per process with esbuild into one plain script, so a thread
+ * starts in milliseconds instead of loading TypeScript through tsx (about a second a thread).
+ * Null if esbuild is not available; the tsx path below is then used.
  */
-function startWorker(): Worker {
+async function workerBundle(): Promise<string | null> {
+  if (bundledWorker !== undefined) return bundledWorker;
+  try {
+    const esbuild = await import('esbuild');
+    const entry = fileURLToPath(new URL('./linesWorker.ts', import.meta.url));
+    const out = await esbuild.build({ entryPoints: [entry], bundle: true, platform: 'node', format: 'cjs', write: false, logLevel: 'silent' });
+    bundledWorker = out.outputFiles[0].text;
+  } catch {
+    bundledWorker = null;
+  }
+  return bundledWorker;
+}
+
+/**
+ * Starts a worker thread on the bundled script, or else on the TypeScript entry through tsx's
+ * API, as `npm run cli` runs main.ts. (Node 20 does not apply `--import tsx` loader hooks to
+ * worker threads, so the usual `execArgv: ['--import', 'tsx']` gives "Unknown file extension .ts".)
+ */
+function startWorker(bundle: string | null): Worker {
+  if (bundle) return new Worker(bundle, { eval: true });
   const entry = new URL('./linesWorker.ts', import.meta.url).href;
   // require.resolve picks the package's "require" build; the thread imports its ES module twin.
   const api = pathToFileURL(createRequire(import.meta.url).resolve('tsx/esm/api').replace(/\.cjs$/, '.mjs')).href;
@@ -62,16 +82,17 @@ export async function runLinesParallel(job: LineSweepJob, opts: ParallelOptions 
     fallbackReason: reason,
   });
   if (opts.inProcess || total === 0) return inProcess(null);
-  // Each thread first loads the core through tsx and builds its model (about a second here): not
-  // worth it for a small sweep unless threads were asked for by number.
+  // Each thread first loads the bundled core and builds its model: not worth it for a tiny sweep
+  // unless threads were asked for by number.
   if (opts.workers === undefined && totalStations(job) < PARALLEL_MIN_STATIONS) return inProcess(null);
 
   const workers: Worker[] = [];
+  const bundle = await workerBundle();
   try {
     const ready = await Promise.all(
       Array.from({ length: want }, () =>
         new Promise<Worker>((resolve, reject) => {
-          const w = startWorker();
+          const w = startWorker(bundle);
           workers.push(w);
           const timer = setTimeout(() => reject(new Error('a worker did not start in time')), WORKER_START_TIMEOUT_MS);
           w.once('error', (e) => {

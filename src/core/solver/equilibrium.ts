@@ -63,12 +63,6 @@ const SOFT_TYRE_NPERM = 2e5;
 /** Give up when the residual has not halved over this many iterations (no equilibrium nearby). */
 const PROGRESS_WINDOW = 6;
 
-/** Test hook: called with each iteration's scaled residual. */
-export let DEBUG_TRACE: ((iteration: number, residual: number, fullJacobian: boolean) => void) | null = null;
-export function setSolverTrace(f: ((iteration: number, residual: number, fullJacobian: boolean) => void) | null): void {
-  DEBUG_TRACE = f;
-}
-
 const N = STATE_SIZE;
 const _x = new Float64Array(N);
 const _xt = new Float64Array(N);
@@ -355,7 +349,6 @@ function newton(model: VehicleModel, x: Float64Array, tol: number, maxIt: number
   // Jacobian by finite differences of the full equations (ten more ray casts per iteration).
   let fullJacobian = false;
   for (; it <= maxIt; it++) {
-    if (DEBUG_TRACE) DEBUG_TRACE(it, maxAbs(_r), fullJacobian);
     if (maxAbs(_r) < tol) {
       status = 'converged';
       reason = 'equilibrium found';
