@@ -225,7 +225,7 @@ export async function runBench(opts: BenchOptions = {}): Promise<BenchReport> {
     const res = last as ReturnType<typeof tiltSweep> | null;
     const tip = res?.tip ? `tip ${(res.tip.angleRad / DEG).toFixed(2)}°` : 'no tip';
     const lift = res?.firstLift ? `, first lift ${res.firstLift.wheel} at ${(res.firstLift.angleRad / DEG).toFixed(2)}°` : '';
-    push(figure('tilt.sweep', t, 'ms', `demo vehicle on a tilt table, left side down, 1° steps then bisection to 0.01°: ${tip}${lift}, ${res?.evaluations ?? 0} evaluations`));
+    push(figure('tilt.sweep', t, 'ms', `demo vehicle on a tilt table, left side down, 2° steps, then each event bracketed and narrowed to 0.01° (secant-guided bisection): ${tip}${lift}, ${res?.evaluations ?? 0} evaluations`));
   }
   {
     let rose: RoseResult | null = null;
