@@ -5,34 +5,13 @@
 import { describe, expect, it } from 'vitest';
 import type { PayloadItem, Terrain, Tilt, Vehicle } from '../../src/core/model/types';
 import { settleWithCannon, STANDARD_GRAVITY_M_PER_S2 } from '../../src/reference/cannonSettle';
+import { testVehicle } from '../helpers/vehicles';
 
 const DEG = Math.PI / 180;
 
-function makeVehicle(cgLeftM: number, payload: readonly PayloadItem[]): Vehicle {
-  return {
-    name: 'Test hauler (invented)',
-    wheelbaseM: 2.8,
-    trackFrontM: 1.6,
-    trackRearM: 1.6,
-    massKg: 2000,
-    cg: { behindFrontAxleM: 1.3, heightM: 0.75, leftOfCentreM: cgLeftM },
-    unsprungMassFrontKg: 0,
-    unsprungMassRearKg: 0,
-    tyreFront: { radiusM: 0.4, widthM: 0.25, stiffnessNPerM: 300e3 },
-    tyreRear: { radiusM: 0.4, widthM: 0.25, stiffnessNPerM: 300e3 },
-    suspensionFront: { type: 'independent', wheelRateNPerM: 40e3, bumpM: 0.12, droopM: 0.15, antiRollNmPerRad: 0, rollCentreHeightM: 0 },
-    suspensionRear: { type: 'independent', wheelRateNPerM: 40e3, bumpM: 0.12, droopM: 0.15, antiRollNmPerRad: 0, rollCentreHeightM: 0 },
-    payload,
-    body: {
-      frontOverhangM: 0.85,
-      rearOverhangM: 0.95,
-      widthM: 1.9,
-      bellyClearanceM: 0.28,
-      frontBumperClearanceM: 0.42,
-      rearBumperClearanceM: 0.45,
-      roofHeightM: 1.85,
-    },
-  };
+/** The shared invented test rig (tests/helpers/vehicles.ts) with a lateral CG offset and a payload. */
+function makeVehicle(cgLeftM: number, payload: PayloadItem[]): Vehicle {
+  return testVehicle({ cg: { behindFrontAxleM: 1.3, heightM: 0.75, leftOfCentreM: cgLeftM }, payload });
 }
 
 const symmetric = makeVehicle(0, []);

@@ -14,33 +14,12 @@ import { describe, expect, it } from 'vitest';
 import type { Pose, Terrain, Tilt, Vehicle } from '../../src/core/model/types';
 import { buildModel, solveEquilibrium } from '../../src/core/solver/equilibrium';
 import { settleWithCannon } from '../../src/reference/cannonSettle';
+import { testVehicle } from '../helpers/vehicles';
 
 const DEG = Math.PI / 180;
 
-const vehicle: Vehicle = {
-  name: 'Test hauler (invented)',
-  wheelbaseM: 2.8,
-  trackFrontM: 1.6,
-  trackRearM: 1.6,
-  massKg: 2000,
-  cg: { behindFrontAxleM: 1.3, heightM: 0.75, leftOfCentreM: 0 },
-  unsprungMassFrontKg: 0,
-  unsprungMassRearKg: 0,
-  tyreFront: { radiusM: 0.4, widthM: 0.25, stiffnessNPerM: 300e3 },
-  tyreRear: { radiusM: 0.4, widthM: 0.25, stiffnessNPerM: 300e3 },
-  suspensionFront: { type: 'independent', wheelRateNPerM: 40e3, bumpM: 0.12, droopM: 0.15, antiRollNmPerRad: 0, rollCentreHeightM: 0 },
-  suspensionRear: { type: 'independent', wheelRateNPerM: 40e3, bumpM: 0.12, droopM: 0.15, antiRollNmPerRad: 0, rollCentreHeightM: 0 },
-  payload: [],
-  body: {
-    frontOverhangM: 0.85,
-    rearOverhangM: 0.95,
-    widthM: 1.9,
-    bellyClearanceM: 0.28,
-    frontBumperClearanceM: 0.42,
-    rearBumperClearanceM: 0.45,
-    roofHeightM: 1.85,
-  },
-};
+// The shared invented test rig: independent both ends, roll centres at the ground, no bars, no unsprung mass.
+const vehicle: Vehicle = testVehicle();
 
 const pose: Pose = { xM: 0, yM: 0, headingRad: 0 };
 // Wheel positions at this pose: x ±1.4 m, y ±0.8 m. A block reaches 0.5 m fore and aft of the
