@@ -11,6 +11,27 @@ async function shellAndAssets() {
   const html = await res.clone().text();
   const urls = new Set(['./', './index.html', './manifest.webmanifest', './icon.svg']);
   for (const m of html.matchAll(/(?:src|href)="(\.\/assets\/[^"]+)"/g)) urls.add(m[1]);
+  // Chunks loaded later (panels, the analysis worker) are named inside the scripts: follow them,
+  // so that a panel opened for the first time at the trailhead is already in the cache.
+  const todo = [...urls].filter((u) => u.endsWith('.js'));
+  const seen = new Set(todo);
+  while (todo.length > 0) {
+    const js = todo.pop();
+    let text = '';
+    try {
+      text = await (await fetch(js, { cache: 'no-cache' })).text();
+    } catch {
+      continue;
+    }
+    for (const m of text.matchAll(/[`"'](?:\.\/)?([A-Za-z0-9_.-]+-[A-Za-z0-9_-]{8}\.js)[`"']/g)) {
+      const u = `./assets/${m[1]}`;
+      if (!seen.has(u)) {
+        seen.add(u);
+        urls.add(u);
+        todo.push(u);
+      }
+    }
+  }
   const entry = /assets\/(index-[^"]+\.js)/.exec(html);
   return { name: PREFIX + (entry ? entry[1] : 'dev'), urls: [...urls], res };
 }

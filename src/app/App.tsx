@@ -1,7 +1,8 @@
-import { useEffect } from 'react';
+import { Suspense, lazy, useEffect } from 'react';
 import { Scene } from '../view/Scene';
 import type { SceneApi } from '../view/sceneContext';
 import { CautionBanner } from './panels/CautionBanner';
+import { PanelBoundary } from './panels/PanelBoundary';
 import { ImportErrors } from './panels/ImportErrors';
 import { LoadsPanel } from './panels/LoadsPanel';
 import { PosePanel } from './panels/PosePanel';
@@ -11,6 +12,23 @@ import { VehiclePanel } from './panels/VehiclePanel';
 import { TiltPanel } from './panels/TiltPanel';
 import { TopBar } from './panels/TopBar';
 import { usePlumbStore } from './storeContext';
+
+// Panels loaded after the first solved scene (their own chunks keep the first load small).
+const loadPass = () => import('./panels/PassPanel');
+const loadCompare = () => import('./panels/ComparePanel');
+const loadCg = () => import('./panels/CgPanel');
+const loadLines = () => import('./panels/LinesPanel');
+const loadReport = () => import('./panels/ReportPanel');
+const PassPanel = lazy(() => loadPass().then((m) => ({ default: m.PassPanel })));
+const ComparePanel = lazy(() => loadCompare().then((m) => ({ default: m.ComparePanel })));
+const CgPanel = lazy(() => loadCg().then((m) => ({ default: m.CgPanel })));
+const LinesPanel = lazy(() => loadLines().then((m) => ({ default: m.LinesPanel })));
+const ReportPanel = lazy(() => loadReport().then((m) => ({ default: m.ReportPanel })));
+
+/** Fetches every lazy panel once the app is idle, so the offline cache holds them all. */
+export function preloadPanels(): Promise<unknown> {
+  return Promise.all([loadPass(), loadCompare(), loadCg(), loadLines(), loadReport()]);
+}
 
 export interface AppProps {
   onSceneApi?: (api: SceneApi) => void;
@@ -33,7 +51,11 @@ export function App({ onSceneApi }: AppProps) {
       }
     };
     window.addEventListener('keydown', onKey);
-    return () => window.removeEventListener('keydown', onKey);
+    const idle = setTimeout(() => void preloadPanels().catch(() => undefined), 1500);
+    return () => {
+      clearTimeout(idle);
+      window.removeEventListener('keydown', onKey);
+    };
   }, [store]);
   return (
     <div className="app">
@@ -45,10 +67,35 @@ export function App({ onSceneApi }: AppProps) {
         <aside className="side">
           <LoadsPanel />
           <TiltPanel />
+          <PanelBoundary name="obstacle pass">
+            <Suspense fallback={<p className="panel hint">Loading the obstacle pass…</p>}>
+              <PassPanel />
+            </Suspense>
+          </PanelBoundary>
           <RosePanel />
+          <PanelBoundary name="compare builds">
+            <Suspense fallback={null}>
+              <ComparePanel />
+            </Suspense>
+          </PanelBoundary>
+          <PanelBoundary name="best line">
+            <Suspense fallback={null}>
+              <LinesPanel />
+            </Suspense>
+          </PanelBoundary>
           <PosePanel />
           <VehiclePanel />
+          <PanelBoundary name="measure the CG">
+            <Suspense fallback={null}>
+              <CgPanel />
+            </Suspense>
+          </PanelBoundary>
           <TerrainPanel />
+          <PanelBoundary name="report">
+            <Suspense fallback={null}>
+              <ReportPanel />
+            </Suspense>
+          </PanelBoundary>
         </aside>
       </main>
     </div>

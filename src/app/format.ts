@@ -75,3 +75,25 @@ export function downhillWords(downhillRad: number): string {
 export function travelText(m: number, units: UnitSystem): string {
   return units === 'metric' ? `${Math.round(m * 1000)} mm` : `${(m / 0.0254).toFixed(1)} in`;
 }
+
+/** Distance along a path: m with 2 decimals in metric, ft with 2 decimals in imperial. */
+export function distanceValue(m: number, units: UnitSystem): number {
+  return units === 'metric' ? m : m / 0.3048;
+}
+
+export function distanceUnit(units: UnitSystem): string {
+  return units === 'metric' ? 'm' : 'ft';
+}
+
+export function distanceText(m: number, units: UnitSystem): string {
+  return `${distanceValue(m, units).toFixed(2)} ${distanceUnit(units)}`;
+}
+
+/** A length in the display unit (m or in), as a number. */
+export function fromSILength(m: number, units: UnitSystem): number {
+  return units === 'metric' ? m : m / 0.0254;
+}
+
+export function lengthUnit(units: UnitSystem): string {
+  return units === 'metric' ? 'm' : 'in';
+}

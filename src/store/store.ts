@@ -8,6 +8,7 @@ import {
   parseScenario,
   solveEquilibrium,
   tiltSweep,
+  type PathSpec,
   type Pose,
   type Scenario,
   type ScenarioError,
@@ -15,6 +16,7 @@ import {
   type Tilt,
   type TiltSweepResult,
   type UnitSystem,
+  type Vehicle,
   type VehicleModel,
 } from '../core';
 
@@ -28,6 +30,22 @@ export interface SweepState {
   readonly scenario: Scenario;
   readonly result: TiltSweepResult;
   readonly wallMs: number;
+}
+
+/**
+ * A pose drawn in the scene in place of (or beside) the scenario's own: a pass station, or a
+ * build from the comparison. It is a view only: the scenario is not changed, and the next edit
+ * of the scenario ends it.
+ */
+export interface ShownPose {
+  /** What is shown, in words (e.g. "pass station 68 (3.40 m)"). */
+  readonly label: string;
+  readonly kind: 'pass' | 'build';
+  readonly vehicle: Vehicle;
+  /** The model the result was solved on (geometry for the view). */
+  readonly model: VehicleModel;
+  readonly pose: Pose;
+  readonly result: SolveResult;
 }
 
 export interface PlumbState {
@@ -45,6 +63,15 @@ export interface PlumbState {
   readonly sweep: SweepState | null;
   readonly past: readonly Scenario[];
   readonly future: readonly Scenario[];
+  /**
+   * Drawn in place of the scenario pose (scene, wheel labels, load table); null: the scenario
+   * itself. A pass station ends with the next edit; a build follows moves and ends with a vehicle edit.
+   */
+  readonly shown: ShownPose | null;
+  /** A second build drawn as an outline at the scenario pose (follows moves; ends when the vehicle is edited). */
+  readonly ghost: ShownPose | null;
+  /** A line drawn on the terrain (e.g. the line chosen from a sweep); null: none. */
+  readonly overlayPath: PathSpec | null;
 
   /** Move and/or turn the vehicle. record=false for the steps of a drag (one undo step per drag: call commitDrag at the end). */
   setPose(pose: Partial<Pose>, record?: boolean): void;
@@ -68,6 +95,16 @@ export interface PlumbState {
   runTiltSweep(): TiltSweepResult;
   undo(): void;
   redo(): void;
+  /** Show a solved pose of the scenario's own vehicle (a pass station) in place of the scenario pose. */
+  showStation(label: string, pose: Pose, result: SolveResult): void;
+  /**
+   * Solve another vehicle (a build) at the scenario pose on the scenario terrain and show it:
+   * 'alone' in place of the scenario's vehicle, 'ghost' as an outline beside it.
+   */
+  showBuild(vehicle: Vehicle, label: string, as: 'alone' | 'ghost'): SolveResult;
+  /** Back to the scenario's own vehicle and pose (and no outline when ghostToo). */
+  clearShown(ghostToo?: boolean): void;
+  setOverlayPath(path: PathSpec | null): void;
 }
 
 export type PlumbStore = StoreApi<PlumbState>;
@@ -116,6 +153,37 @@ export function createPlumbStore(initial: Scenario, units: UnitSystem = initial.
 
   const first = solve(initial, null, null);
 
+  /** Models of other vehicles (builds), by vehicle object. */
+  const otherModels = new Map<Vehicle, { model: VehicleModel; terrain: Scenario['terrain'] }>();
+  const modelOf = (v: Vehicle, terrain: Scenario['terrain']): VehicleModel => {
+    const m = otherModels.get(v);
+    if (!m) {
+      if (otherModels.size > 8) otherModels.clear();
+      const model = buildModel(v, terrain);
+      otherModels.set(v, { model, terrain });
+      return model;
+    }
+    if (m.terrain !== terrain) {
+      m.model.setTerrain(terrain);
+      m.terrain = terrain;
+    }
+    return m.model;
+  };
+  /** Another vehicle at the scenario pose (warm from prev when given and converged). */
+  const solveOther = (v: Vehicle, s: Scenario, prev: SolveResult | null): { model: VehicleModel; result: SolveResult } => {
+    const model = modelOf(v, s.terrain);
+    const warm = prev && prev.status === 'converged' ? prev.state : null;
+    let result = solveEquilibrium(model, s.pose, { tilt: s.tilt, friction: s.friction, warmStart: warm });
+    if (warm && result.status !== 'converged') result = solveEquilibrium(model, s.pose, { tilt: s.tilt, friction: s.friction });
+    return { model, result };
+  };
+  /** A build shown after a change of scenario: it follows the pose and terrain, and ends with a vehicle edit. */
+  const ghostFor = (ghost: ShownPose | null, prev: Scenario, next: Scenario): ShownPose | null => {
+    if (!ghost || ghost.kind !== 'build' || next.vehicle !== prev.vehicle) return null;
+    const { model, result } = solveOther(ghost.vehicle, next, ghost.result);
+    return { ...ghost, model, pose: next.pose, result };
+  };
+
   return createStore<PlumbState>()((set, get) => {
     /** Apply a new scenario: solve and set; record pushes the old one on the undo stack. */
     const apply = (next: Scenario, record: boolean): void => {
@@ -123,7 +191,16 @@ export function createPlumbStore(initial: Scenario, units: UnitSystem = initial.
       if (next === st.scenario) return;
       const { result, solveMs } = solve(next, st.result, st.scenario);
       const past = record ? [...st.past, st.scenario].slice(-HISTORY_LIMIT) : st.past;
-      set({ scenario: next, result, solveMs, past, future: record ? [] : st.future, model: cache.model as VehicleModel });
+      set({
+        scenario: next,
+        result,
+        solveMs,
+        past,
+        future: record ? [] : st.future,
+        model: cache.model as VehicleModel,
+        shown: ghostFor(st.shown, st.scenario, next),
+        ghost: ghostFor(st.ghost, st.scenario, next),
+      });
     };
 
     return {
@@ -137,6 +214,9 @@ export function createPlumbStore(initial: Scenario, units: UnitSystem = initial.
       sweep: null,
       past: [],
       future: [],
+      shown: null,
+      ghost: null,
+      overlayPath: null,
 
       setPose(pose, record = true) {
         const s = get().scenario;
@@ -210,15 +290,57 @@ export function createPlumbStore(initial: Scenario, units: UnitSystem = initial.
         if (st.past.length === 0) return;
         const prev = st.past[st.past.length - 1];
         const { result, solveMs } = solve(prev, st.result, st.scenario);
-        set({ scenario: prev, result, solveMs, model: cache.model as VehicleModel, past: st.past.slice(0, -1), future: [st.scenario, ...st.future] });
+        set({
+          scenario: prev,
+          result,
+          solveMs,
+          model: cache.model as VehicleModel,
+          past: st.past.slice(0, -1),
+          future: [st.scenario, ...st.future],
+          shown: ghostFor(st.shown, st.scenario, prev),
+          ghost: ghostFor(st.ghost, st.scenario, prev),
+        });
       },
       redo() {
         const st = get();
         if (st.future.length === 0) return;
         const next = st.future[0];
         const { result, solveMs } = solve(next, st.result, st.scenario);
-        set({ scenario: next, result, solveMs, model: cache.model as VehicleModel, past: [...st.past, st.scenario].slice(-HISTORY_LIMIT), future: st.future.slice(1) });
+        set({
+          scenario: next,
+          result,
+          solveMs,
+          model: cache.model as VehicleModel,
+          past: [...st.past, st.scenario].slice(-HISTORY_LIMIT),
+          future: st.future.slice(1),
+          shown: ghostFor(st.shown, st.scenario, next),
+          ghost: ghostFor(st.ghost, st.scenario, next),
+        });
+      },
+      showStation(label, pose, result) {
+        const st = get();
+        set({ shown: { label, kind: 'pass', vehicle: st.scenario.vehicle, model: st.model, pose, result } });
+      },
+      showBuild(vehicle, label, as) {
+        const st = get();
+        const prev = as === 'ghost' ? st.ghost : st.shown?.kind === 'build' ? st.shown : null;
+        const { model, result } = solveOther(vehicle, st.scenario, prev && prev.vehicle === vehicle ? prev.result : null);
+        const shown: ShownPose = { label, kind: 'build', vehicle, model, pose: st.scenario.pose, result };
+        set(as === 'ghost' ? { ghost: shown } : { shown });
+        return result;
+      },
+      clearShown(ghostToo = false) {
+        set(ghostToo ? { shown: null, ghost: null } : { shown: null });
+      },
+      setOverlayPath(path) {
+        set({ overlayPath: path });
       },
     };
   });
 }
+
+/** What the scene draws: the shown pose when there is one, else the scenario's (views read through these). */
+export const shownResult = (s: PlumbState): SolveResult => s.shown?.result ?? s.result;
+export const shownPose = (s: PlumbState): Pose => s.shown?.pose ?? s.scenario.pose;
+export const shownVehicle = (s: PlumbState): Vehicle => s.shown?.vehicle ?? s.scenario.vehicle;
+export const shownModel = (s: PlumbState): VehicleModel => s.shown?.model ?? s.model;

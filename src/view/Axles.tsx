@@ -1,6 +1,7 @@
 import { useRef } from 'react';
 import * as THREE from 'three';
 import { usePlumb } from '../app/storeContext';
+import { shownModel, shownPose, shownResult, shownVehicle } from '../store/store';
 import { alongQuaternion, bodyMatrix } from './adapters';
 import { useSolved } from './useSolved';
 
@@ -20,14 +21,15 @@ const _d = new THREE.Vector3();
  */
 export function Axles({ radiusM = 0.045 }: AxlesProps) {
   const bars = [useRef<THREE.Mesh>(null), useRef<THREE.Mesh>(null), useRef<THREE.Mesh>(null), useRef<THREE.Mesh>(null)];
-  const solidFront = usePlumb((s) => s.scenario.vehicle.suspensionFront.type === 'solid');
-  const solidRear = usePlumb((s) => s.scenario.vehicle.suspensionRear.type === 'solid');
+  const solidFront = usePlumb((s) => shownVehicle(s).suspensionFront.type === 'solid');
+  const solidRear = usePlumb((s) => shownVehicle(s).suspensionRear.type === 'solid');
   useSolved((s) => {
-    const r = s.result;
-    bodyMatrix(s.model, s.scenario.pose, r, _m);
+    const r = shownResult(s);
+    const model = shownModel(s);
+    bodyMatrix(model, shownPose(s), r, _m);
     for (let axle = 0; axle < 2; axle++) {
       const solid = axle === 0 ? solidFront : solidRear;
-      const ax = s.model.axles[axle];
+      const ax = model.axles[axle];
       for (let side = 0; side < 2; side++) {
         const bar = bars[2 * axle + side].current;
         if (!bar) continue;
@@ -43,7 +45,7 @@ export function Axles({ radiusM = 0.045 }: AxlesProps) {
           _b.set(o[0], o[1], o[2]);
         } else {
           // Inner pivot: on the body, 0.2 m from the centre line, at the wheel's ride height.
-          _b.set(ax.xM, side === 0 ? 0.2 : -0.2, s.model.rideRadiusM[wi]).applyMatrix4(_m);
+          _b.set(ax.xM, side === 0 ? 0.2 : -0.2, model.rideRadiusM[wi]).applyMatrix4(_m);
         }
         bar.visible = true;
         _d.subVectors(_b, _a);

@@ -2,6 +2,7 @@ import { useEffect, useRef } from 'react';
 import { useFrame, useThree } from '@react-three/fiber';
 import * as THREE from 'three';
 import { usePlumbStore } from '../app/storeContext';
+import { shownPose, shownResult } from '../store/store';
 import { useSceneApi, type ViewPreset } from './sceneContext';
 
 export interface CameraRigProps {
@@ -60,7 +61,7 @@ export function CameraRig({ distanceM = 10, minDistanceM = 2, maxDistanceM = 80 
     /** The vehicle's reference point, in world (tilted) coordinates. */
     const vehicleTarget = (out: THREE.Vector3): THREE.Vector3 => {
       const st = store.getState();
-      const c = st.result.body.cgWorld;
+      const c = shownResult(st).body.cgWorld;
       out.set(c[0], c[1], c[2] * 0.5);
       const t = table();
       if (t) {
@@ -72,7 +73,7 @@ export function CameraRig({ distanceM = 10, minDistanceM = 2, maxDistanceM = 80 
 
     api.invalidate = invalidate;
     api.view = (preset: ViewPreset) => {
-      const h = store.getState().scenario.pose.headingRad;
+      const h = shownPose(store.getState()).headingRad;
       vehicleTarget(o.target);
       switch (preset) {
         case 'front':
@@ -104,6 +105,27 @@ export function CameraRig({ distanceM = 10, minDistanceM = 2, maxDistanceM = 80 
     let lastX = 0;
     let lastY = 0;
     const grab = { planeZ: 0, hitX: 0, hitY: 0, poseX: 0, poseY: 0, angle0: 0, heading0: 0 };
+
+    // Follow the vehicle when its shown pose moves other than by a drag (a pass station, a typed
+    // pose): the target moves by the same step, so the view keeps its angle and distance.
+    let followed = shownPose(store.getState());
+    const unfollow = store.subscribe((st) => {
+      const p = shownPose(st);
+      if (p === followed) return;
+      const prev = followed;
+      followed = p;
+      if (mode === 'drag' || mode === 'turn') return;
+      const t = table();
+      _o.set(prev.xM, prev.yM, 0);
+      _hit.set(p.xM, p.yM, 0);
+      if (t) {
+        t.updateMatrixWorld(true);
+        _o.applyMatrix4(t.matrixWorld);
+        _hit.applyMatrix4(t.matrixWorld);
+      }
+      o.target.add(_hit.sub(_o));
+      place();
+    });
 
     const setRay = (e: PointerEvent): void => {
       const r = el.getBoundingClientRect();
@@ -215,6 +237,7 @@ export function CameraRig({ distanceM = 10, minDistanceM = 2, maxDistanceM = 80 
     el.addEventListener('contextmenu', onMenu);
     el.style.touchAction = 'none';
     return () => {
+      unfollow();
       el.removeEventListener('pointerdown', onDown);
       el.removeEventListener('pointermove', onMove);
       el.removeEventListener('pointerup', onUp);

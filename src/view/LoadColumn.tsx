@@ -1,6 +1,7 @@
 import { useRef } from 'react';
 import * as THREE from 'three';
 import { usePlumb } from '../app/storeContext';
+import { shownResult, shownVehicle } from '../store/store';
 import { alongQuaternion, loadShareColor } from './adapters';
 import { useSolved } from './useSolved';
 
@@ -25,16 +26,17 @@ export function LoadColumn({ index, heightPerQuarterM = 0.9, radiusM = 0.055 }: 
   const shaft = useRef<THREE.Mesh>(null);
   const head = useRef<THREE.Mesh>(null);
   const material = useRef<THREE.MeshLambertMaterial>(null);
-  const tyreWidthM = usePlumb((s) => (index < 2 ? s.scenario.vehicle.tyreFront.widthM : s.scenario.vehicle.tyreRear.widthM));
+  const tyreWidthM = usePlumb((s) => (index < 2 ? shownVehicle(s).tyreFront.widthM : shownVehicle(s).tyreRear.widthM));
   const headM = 0.14;
   useSolved((s) => {
     const g = group.current;
     if (!g || !shaft.current || !head.current || !material.current) return;
-    const w = s.result.wheels[index];
-    const quarter = s.result.weightN / 4;
+    const r = shownResult(s);
+    const w = r.wheels[index];
+    const quarter = r.weightN / 4;
     const h = Math.max(0.02, (heightPerQuarterM * w.verticalLoadN) / quarter);
-    g.visible = !w.lifted && s.result.status !== 'no-contact';
-    const gd = s.result.gravityDirWorld;
+    g.visible = !w.lifted && r.status !== 'no-contact';
+    const gd = r.gravityDirWorld;
     _up.set(-gd[0], -gd[1], -gd[2]);
     // Outboard: along the tyre axis to the left for left wheels, to the right for right wheels.
     const out = (index & 1) === 0 ? 1 : -1;

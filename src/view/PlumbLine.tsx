@@ -1,5 +1,6 @@
 import { useMemo, useRef } from 'react';
 import * as THREE from 'three';
+import { shownResult } from '../store/store';
 import { useSolved } from './useSolved';
 
 export interface PlumbLineProps {
@@ -27,7 +28,7 @@ export function PlumbLine({ markerRadiusM = 0.07 }: PlumbLineProps) {
   const outMat = useMemo(() => new THREE.LineDashedMaterial({ color: '#c0392b', dashSize: 0.06, gapSize: 0.04 }), []);
   const lineObject = useMemo(() => new THREE.Line(line, okMat), [line, okMat]);
   useSolved((s) => {
-    const r = s.result;
+    const r = shownResult(s);
     const c = r.body.cgWorld;
     const p = r.body.plumbPointWorld;
     if (cg.current) cg.current.position.set(c[0], c[1], c[2]);

@@ -4,7 +4,9 @@ import { Axles } from './Axles';
 import { CameraRig } from './CameraRig';
 import { LabelProjector } from './LabelProjector';
 import { LoadColumn } from './LoadColumn';
+import { GhostVehicle } from './GhostVehicle';
 import { LoadLegend } from './LoadLegend';
+import { PathLine } from './PathLine';
 import { PlumbLine } from './PlumbLine';
 import { SceneContext, makeSceneApi, type SceneApi, type ViewPreset } from './sceneContext';
 import { SupportPolygon } from './SupportPolygon';
@@ -55,6 +57,8 @@ export function Scene({ onApi }: SceneProps) {
               ))}
               <SupportPolygon />
               <PlumbLine />
+              <GhostVehicle />
+              <PathLine />
             </TiltTable>
             <CameraRig />
             <LabelProjector />

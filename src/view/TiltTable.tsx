@@ -1,6 +1,7 @@
 import { useRef, type ReactNode } from 'react';
 import type * as THREE from 'three';
 import { tiltQuaternion } from './adapters';
+import { shownPose } from '../store/store';
 import { useSolved } from './useSolved';
 
 export interface TiltTableProps {
@@ -13,7 +14,7 @@ export function TiltTable({ children }: TiltTableProps) {
   useSolved((s) => {
     const g = ref.current;
     if (!g) return;
-    tiltQuaternion(s.scenario.tilt, s.scenario.pose.headingRad, g.quaternion);
+    tiltQuaternion(s.scenario.tilt, shownPose(s).headingRad, g.quaternion);
     g.updateMatrixWorld(true);
   });
   return (

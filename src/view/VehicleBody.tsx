@@ -1,6 +1,7 @@
 import { useEffect, useMemo, useRef } from 'react';
 import * as THREE from 'three';
 import { usePlumb } from '../app/storeContext';
+import { shownModel, shownPose, shownResult, shownVehicle } from '../store/store';
 import { bodyMatrix } from './adapters';
 import { useSceneApi } from './sceneContext';
 import { useSolved } from './useSolved';
@@ -13,8 +14,8 @@ export interface VehicleBodyProps {
 /** The body as a box from the body outline (overhangs, width, belly to roof), posed as solved. */
 export function VehicleBody({ opacity = 0.28 }: VehicleBodyProps) {
   const api = useSceneApi();
-  const body = usePlumb((s) => s.scenario.vehicle.body);
-  const wheelbaseM = usePlumb((s) => s.scenario.vehicle.wheelbaseM);
+  const body = usePlumb((s) => shownVehicle(s).body);
+  const wheelbaseM = usePlumb((s) => shownVehicle(s).wheelbaseM);
   const group = useRef<THREE.Group>(null);
   const mesh = useRef<THREE.Mesh>(null);
   const { box, edges, centre } = useMemo(() => {
@@ -42,7 +43,7 @@ export function VehicleBody({ opacity = 0.28 }: VehicleBodyProps) {
   useSolved((s) => {
     const g = group.current;
     if (!g) return;
-    bodyMatrix(s.model, s.scenario.pose, s.result, g.matrix);
+    bodyMatrix(shownModel(s), shownPose(s), shownResult(s), g.matrix);
     g.matrixWorldNeedsUpdate = true;
   });
   return (

@@ -1,6 +1,7 @@
 import { useMemo, useRef } from 'react';
 import * as THREE from 'three';
 import { usePlumb } from '../app/storeContext';
+import { shownResult, shownVehicle } from '../store/store';
 import { alongQuaternion } from './adapters';
 import { useSceneApi } from './sceneContext';
 import { useSolved } from './useSolved';
@@ -18,7 +19,7 @@ export interface WheelProps {
  */
 export function Wheel({ index, labelLiftM = 0.3 }: WheelProps) {
   const api = useSceneApi();
-  const tyre = usePlumb((s) => (index < 2 ? s.scenario.vehicle.tyreFront : s.scenario.vehicle.tyreRear));
+  const tyre = usePlumb((s) => (index < 2 ? shownVehicle(s).tyreFront : shownVehicle(s).tyreRear));
   const group = useRef<THREE.Group>(null);
   const solid = useRef<THREE.Group>(null);
   const hollow = useRef<THREE.Group>(null);
@@ -50,7 +51,7 @@ export function Wheel({ index, labelLiftM = 0.3 }: WheelProps) {
   useSolved((s) => {
     const g = group.current;
     if (!g || !solid.current || !hollow.current) return;
-    const w = s.result.wheels[index];
+    const w = shownResult(s).wheels[index];
     g.position.set(w.centreWorld[0], w.centreWorld[1], w.centreWorld[2]);
     alongQuaternion(w.axisWorld, g.quaternion);
     solid.current.visible = !w.lifted;

@@ -1,6 +1,7 @@
 import { WHEEL_NAMES } from '../core';
 import { usePlumb } from '../app/storeContext';
 import { percentText, scaleText } from '../app/format';
+import { shownResult } from '../store/store';
 import { useSceneApi } from './sceneContext';
 
 export interface WheelLabelProps {
@@ -15,7 +16,7 @@ export interface WheelLabelProps {
 export function WheelLabel({ index }: WheelLabelProps) {
   const api = useSceneApi();
   const units = usePlumb((s) => s.units);
-  const w = usePlumb((s) => s.result.wheels[index]);
+  const w = usePlumb((s) => shownResult(s).wheels[index]);
   const name = WHEEL_NAMES[index];
   const share = w.staticLoadN > 0 ? w.verticalLoadN / w.staticLoadN : 0;
   return (

@@ -1,27 +1,92 @@
 /// <reference lib="webworker" />
 /**
- * Long analyses off the main thread, so the interface never freezes: the stability rose (a tilt
- * sweep for every downhill direction). Cancel = the app terminates this worker.
+ * Long analyses off the main thread, so the interface never freezes: the stability rose, the
+ * obstacle pass, the build comparison, the line sweep and the report. Cancel = the app
+ * terminates this worker.
  */
-import { buildModel, stabilityRose } from '../core';
+import {
+  MAX_BUILDS,
+  applyBuild,
+  buildModel,
+  collectReport,
+  compareVehicles,
+  makeLines,
+  passOptionsOf,
+  rankLines,
+  renderReportHtml,
+  runLineSweepJob,
+  runPass,
+  stabilityRose,
+  type AppliedBuild,
+} from '../core';
 import type { WorkerReply, WorkerRequest } from './messages';
+import { solvePassStations } from './passReplay';
 
 const post = (m: WorkerReply): void => (self as unknown as DedicatedWorkerGlobalScope).postMessage(m);
+const RAD_PER_DEG = Math.PI / 180;
+
+function handle(req: WorkerRequest): void {
+  const t0 = performance.now();
+  const s = req.scenario;
+  const progress = (done: number, total: number, stage?: string) => post({ type: 'progress', id: req.id, done, total, stage });
+  switch (req.type) {
+    case 'rose': {
+      const model = buildModel(s.vehicle, s.terrain);
+      const result = stabilityRose(model, s.pose, { stepRad: req.stepDeg * RAD_PER_DEG, friction: s.friction, onProgress: (d, t) => progress(d, t) });
+      post({ type: 'rose', id: req.id, result, wallMs: performance.now() - t0 });
+      return;
+    }
+    case 'pass': {
+      if (!s.path) throw new Error('the scenario has no path');
+      const model = buildModel(s.vehicle, s.terrain);
+      const opts = passOptionsOf(s);
+      // Progress: the pass, then the full solves for the scene (cheaper: warm starts all along).
+      const result = runPass(model, s.path, { ...opts, onProgress: (d, t) => progress(d, 2 * t, 'pass') });
+      const n = result.stations.length;
+      const solved = solvePassStations(model, result, opts, (d) => progress(n + d, 2 * n, 'stations'));
+      post({ type: 'pass', id: req.id, result, solved, wallMs: performance.now() - t0 });
+      return;
+    }
+    case 'compare': {
+      // As the compare command with one file: the vehicle as given first, then each build.
+      const builds = s.builds ?? [];
+      if (builds.length === 0) throw new Error('the scenario has no builds');
+      const applied: AppliedBuild[] = [{ name: 'as given', vehicle: s.vehicle, changes: ['as given'] }, ...builds.slice(0, MAX_BUILDS - 1).map((b) => applyBuild(s.vehicle, b))];
+      const rows = compareVehicles(applied, {
+        terrain: s.terrain,
+        path: s.path,
+        friction: s.friction,
+        roseStepRad: 5 * RAD_PER_DEG,
+        onProgress: (d, t) => progress(d, t),
+      });
+      post({ type: 'compare', id: req.id, rows, wallMs: performance.now() - t0 });
+      return;
+    }
+    case 'lines': {
+      if (!s.path) throw new Error('the scenario has no path');
+      const lines = makeLines(s.path, req.offsetsM, req.headingChangesRad);
+      if (lines.length === 0) throw new Error('no lines: check the ranges');
+      const summaries = runLineSweepJob({ vehicle: s.vehicle, terrain: s.terrain, options: passOptionsOf(s), lines }, (_x, d, t) => progress(d, t));
+      post({ type: 'lines', id: req.id, lines, ranked: rankLines(summaries).ranked, wallMs: performance.now() - t0 });
+      return;
+    }
+    case 'report': {
+      const data = collectReport(s, { builds: s.builds, onStage: (stage) => progress(0, 1, stage) });
+      const html = renderReportHtml(data, {
+        toolVersion: req.toolVersion,
+        dateText: req.dateText,
+        ...(req.sceneImageDataUrl ? { sceneImageDataUrl: req.sceneImageDataUrl } : {}),
+      });
+      post({ type: 'report', id: req.id, html, wallMs: performance.now() - t0 });
+      return;
+    }
+  }
+}
 
 self.onmessage = (e: MessageEvent<WorkerRequest>) => {
-  const req = e.data;
-  if (req.type !== 'rose') return;
   try {
-    const t0 = performance.now();
-    const s = req.scenario;
-    const model = buildModel(s.vehicle, s.terrain);
-    const result = stabilityRose(model, s.pose, {
-      stepRad: (req.stepDeg * Math.PI) / 180,
-      friction: s.friction,
-      onProgress: (done, total) => post({ type: 'progress', id: req.id, done, total }),
-    });
-    post({ type: 'rose', id: req.id, result, wallMs: performance.now() - t0 });
+    handle(e.data);
   } catch (err) {
-    post({ type: 'error', id: req.id, message: (err as Error).message });
+    post({ type: 'error', id: e.data.id, message: (err as Error).message });
   }
 };

@@ -1,9 +1,32 @@
 /** Messages between the app and the analysis worker. Scenarios cross as plain (structured-clone) data. */
-import type { RoseResult, Scenario } from '../core';
+import type { BuildRow, LineSpec, LineSummary, PassResult, RoseResult, Scenario, SolveResult, SweepRange } from '../core';
 
-export type WorkerRequest = { readonly type: 'rose'; readonly id: number; readonly scenario: Scenario; readonly stepDeg: number };
+export type WorkerRequest =
+  | { readonly type: 'rose'; readonly id: number; readonly scenario: Scenario; readonly stepDeg: number }
+  /** The obstacle pass on the scenario's path, and each station's full solve for the scene. */
+  | { readonly type: 'pass'; readonly id: number; readonly scenario: Scenario }
+  /** The vehicle as given and each of the scenario's builds, as the compare command runs them. */
+  | { readonly type: 'compare'; readonly id: number; readonly scenario: Scenario }
+  /** Lines around the scenario's path: offsets (m) and heading changes (rad). */
+  | { readonly type: 'lines'; readonly id: number; readonly scenario: Scenario; readonly offsetsM: SweepRange; readonly headingChangesRad: SweepRange }
+  /** The self-contained HTML report; the picture of the 3D view as a data: URL, or null. */
+  | {
+      readonly type: 'report';
+      readonly id: number;
+      readonly scenario: Scenario;
+      readonly toolVersion: string;
+      readonly dateText: string;
+      readonly sceneImageDataUrl: string | null;
+    };
 
 export type WorkerReply =
-  | { readonly type: 'progress'; readonly id: number; readonly done: number; readonly total: number }
+  | { readonly type: 'progress'; readonly id: number; readonly done: number; readonly total: number; readonly stage?: string }
   | { readonly type: 'rose'; readonly id: number; readonly result: RoseResult; readonly wallMs: number }
+  | { readonly type: 'pass'; readonly id: number; readonly result: PassResult; readonly solved: readonly SolveResult[]; readonly wallMs: number }
+  | { readonly type: 'compare'; readonly id: number; readonly rows: readonly BuildRow[]; readonly wallMs: number }
+  | { readonly type: 'lines'; readonly id: number; readonly lines: readonly LineSpec[]; readonly ranked: readonly LineSummary[]; readonly wallMs: number }
+  | { readonly type: 'report'; readonly id: number; readonly html: string; readonly wallMs: number }
   | { readonly type: 'error'; readonly id: number; readonly message: string };
+
+/** The result part of each reply, by request type. */
+export type ReplyOf<T extends WorkerRequest['type']> = Omit<Extract<WorkerReply, { type: T }>, 'type' | 'id'>;

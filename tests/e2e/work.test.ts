@@ -81,5 +81,8 @@ it('opens offline once loaded (service worker cache)', async () => {
   await page.reload();
   await waitForScene(page);
   await expect(page.getByTestId('wheel-load-FL').textContent()).resolves.toMatch(/\d+ kg/);
+  // The panels loaded on demand (their own chunks) come from the cache too.
+  await page.getByTestId('pass-run').waitFor({ timeout: 15_000 });
+  await page.getByTestId('report-button').waitFor({ timeout: 15_000 });
   await ctx.close();
 });

@@ -1,13 +1,16 @@
 import { useMemo } from 'react';
 import { STANDARD_GRAVITY_M_PER_S2 } from '../../core';
 import { angleText, forceText, lengthText, percentText, scaleText, travelText } from '../format';
-import { usePlumb } from '../storeContext';
+import { usePlumb, usePlumbStore } from '../storeContext';
 import { warningsFor } from '../warnings';
+import { shownResult } from '../../store/store';
 import { viridisCss } from '../../view/colormap';
 
 /** Side table: the four tyre loads, weight, margins and warnings in words. */
 export function LoadsPanel() {
-  const r = usePlumb((s) => s.result);
+  const store = usePlumbStore();
+  const r = usePlumb(shownResult);
+  const shown = usePlumb((s) => s.shown);
   const units = usePlumb((s) => s.units);
   const friction = usePlumb((s) => s.scenario.friction);
   const warnings = useMemo(() => warningsFor(r, friction), [r, friction]);
@@ -16,6 +19,14 @@ export function LoadsPanel() {
   return (
     <section className="panel" aria-labelledby="loads-h">
       <h2 id="loads-h">Tyre loads</h2>
+      {shown ? (
+        <p className="shown-note" data-testid="shown-note">
+          Showing {shown.label}, not the scenario as edited.{' '}
+          <button type="button" onClick={() => store.getState().clearShown()}>
+            Back to the scenario
+          </button>
+        </p>
+      ) : null}
       <p className="weight" data-testid="vehicle-weight" data-weight-n={r.weightN}>
         Vehicle weight with payload: <b>{scaleText(r.weightN, units)}</b> ({forceText(r.weightN, units)})
       </p>

@@ -7,7 +7,7 @@
  * Accepted: a UTF-8 byte-order mark, CRLF or LF line ends, comma, semicolon or tab between
  * cells (one kind per file: the one on the most lines), blank lines and lines starting with # (skipped), and one header
  * row of words. Refused, with the row and column (1-based, as a spreadsheet counts): cells that
- * are not numbers (a decimal comma included), empty cells, and rows whose length differs from
+ * are not numbers (a decimal comma included) or overflow a double (1e999), empty cells, and rows whose length differs from
  * the first data row's.
  */
 
@@ -87,7 +87,12 @@ export function parseCsvNumbers(text: string): CsvNumbersResult {
       const c = cells[j];
       if (c === '') fail({ row: rowNo, column: j + 1, message: 'is empty, expected a number' });
       else if (!NUMBER.test(c)) fail({ row: rowNo, column: j + 1, message: `${describe(c)} is not a number${/^\d+,\d+$/.test(c) ? ' (use a decimal point)' : ''}` });
-      else out.push(Number(c));
+      else {
+        const v = Number(c);
+        // A literal like 1e999 parses to Infinity: out of the range of a double.
+        if (!Number.isFinite(v)) fail({ row: rowNo, column: j + 1, message: `${describe(c)} is too large a number` });
+        else out.push(v);
+      }
     }
     rows.push(out);
   }

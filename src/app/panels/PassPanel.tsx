@@ -1,0 +1,271 @@
+import { useEffect, useMemo, useRef, useState } from 'react';
+import { WHEEL_NAMES, type PassResult, type Scenario, type SolveResult } from '../../core';
+import { runJob, type Job } from '../../worker/client';
+import type { ReplyOf } from '../../worker/messages';
+import { WHEEL_COLOURS, WHEEL_DASHES } from '../../view/colormap';
+import { DEG_PER_RAD, distanceText, distanceUnit, distanceValue, forceUnit, forceValue, fromSILength, lengthUnit } from '../format';
+import { eventWords, passHeadline } from '../passWords';
+import { usePlumb, usePlumbStore } from '../storeContext';
+import { DistanceChart, type DistanceMark } from './DistanceChart';
+
+type Done = ReplyOf<'pass'> & { readonly for: Scenario };
+
+/** Playback: the whole path in about this many frames, one frame every PLAY_MS. */
+const PLAY_FRAMES = 160;
+const PLAY_MS = 50;
+
+/**
+ * Obstacle pass: the vehicle crawls along the scenario's path (in a worker); a scrubber and play
+ * button pose it at each station in the scene; charts of loads, travel and margins against
+ * distance with the events marked; the headline in words.
+ */
+export function PassPanel() {
+  const store = usePlumbStore();
+  const scenario = usePlumb((s) => s.scenario);
+  const units = usePlumb((s) => s.units);
+  const [progress, setProgress] = useState<{ done: number; total: number } | null>(null);
+  const [done, setDone] = useState<Done | null>(null);
+  const [message, setMessage] = useState<string | null>(null);
+  const [station, setStation] = useState(0);
+  const [playing, setPlaying] = useState(false);
+  const job = useRef<Job<ReplyOf<'pass'>> | null>(null);
+  const stationRef = useRef(0);
+  useEffect(() => () => job.current?.cancel(), []);
+  const stale =
+    done !== null &&
+    (done.for.vehicle !== scenario.vehicle || done.for.terrain !== scenario.terrain || done.for.path !== scenario.path || done.for.tilt !== scenario.tilt || done.for.friction !== scenario.friction);
+
+  const show = (d: Done, i: number) => {
+    const st = d.result.stations[i];
+    const r: SolveResult | undefined = d.solved[i];
+    if (!st || !r) return;
+    stationRef.current = i;
+    setStation(i);
+    // Only while the pass belongs to the scenario on screen (same vehicle and terrain).
+    const now = store.getState().scenario;
+    if (now.vehicle === d.for.vehicle && now.terrain === d.for.terrain && now.tilt === d.for.tilt) {
+      store.getState().showStation(`pass station ${i} (${distanceText(st.distanceM, store.getState().units)} along the path)`, st.pose, r);
+    }
+  };
+
+  const start = () => {
+    const s = store.getState().scenario;
+    setMessage(null);
+    setPlaying(false);
+    setProgress({ done: 0, total: 1 });
+    const j = runJob({ type: 'pass', scenario: s }, (d, t) => setProgress({ done: d, total: t }));
+    job.current = j;
+    j.done
+      .then((r) => {
+        const d = { ...r, for: s };
+        setDone(d);
+        show(d, 0);
+      })
+      .catch((e: Error) => setMessage(e.message === 'cancelled' ? 'Cancelled.' : `Failed: ${e.message}`))
+      .finally(() => {
+        if (job.current === j) job.current = null;
+        setProgress(null);
+      });
+  };
+
+  // Play: step through the stations; stops at the end.
+  const doneRef = useRef(done);
+  doneRef.current = done;
+  useEffect(() => {
+    if (!playing || !done) return;
+    const n = done.result.stations.length;
+    const step = Math.max(1, Math.ceil(n / PLAY_FRAMES));
+    const t = setInterval(() => {
+      const next = Math.min(n - 1, stationRef.current + step);
+      if (doneRef.current) show(doneRef.current, next);
+      if (next >= n - 1) setPlaying(false);
+    }, PLAY_MS);
+    return () => clearInterval(t);
+  }, [playing, done]);
+
+  const charts = useMemo(() => (done ? chartData(done.result, units) : null), [done, units]);
+
+  if (!scenario.path) {
+    return (
+      <section className="panel" aria-labelledby="pass-h">
+        <h2 id="pass-h">Obstacle pass</h2>
+        <p className="hint">This scenario has no path. Give one in the scenario file ("path": from, to, step) to crawl the vehicle along it.</p>
+      </section>
+    );
+  }
+  const r = done?.result;
+  const st = r?.stations[station];
+  const cur = st ? distanceValue(st.distanceM, units) : undefined;
+  const jumpTo = (x: number) => {
+    if (!done) return;
+    const xs = charts!.distances;
+    let best = 0;
+    for (let i = 1; i < xs.length; i++) if (Math.abs(xs[i] - x) < Math.abs(xs[best] - x)) best = i;
+    setPlaying(false);
+    show(done, best);
+  };
+  const onMark = (i: number) => {
+    if (!done) return;
+    setPlaying(false);
+    show(done, Math.min(done.result.stations.length - 1, done.result.events[i].startStation));
+  };
+  return (
+    <section className="panel" aria-labelledby="pass-h">
+      <details open>
+        <summary>
+          <h2 id="pass-h">Obstacle pass</h2>
+        </summary>
+        <p className="hint">
+          Crawl from ({scenario.path.fromM.join(', ')}) m to ({scenario.path.toM.join(', ')}) m, a station every {distanceText(scenario.path.stepM, units)}, each a standing pose.
+        </p>
+        <div className="buttons">
+          <button type="button" data-testid="pass-run" disabled={progress !== null} onClick={start}>
+            {done ? 'Run the pass again' : 'Run the pass'}
+          </button>
+          {progress ? (
+            <button type="button" data-testid="pass-cancel" onClick={() => job.current?.cancel()}>
+              Cancel
+            </button>
+          ) : null}
+        </div>
+        {progress ? <progress data-testid="pass-progress" max={progress.total} value={progress.done} style={{ width: '100%' }} /> : null}
+        {message ? <p className="hint">{message}</p> : null}
+        {done && r && charts ? (
+          <div data-testid="pass-result">
+            {stale ? <p className="hint">The scenario changed since this pass: run it again.</p> : null}
+            <p
+              className="headline"
+              data-testid="pass-headline"
+              data-first-unload-wheel={r.firstUnload?.wheel ?? ''}
+              data-first-unload-m={r.firstUnload?.distanceM ?? ''}
+              data-min-margin-deg={r.minMargin ? r.minMargin.forceAngleRad * DEG_PER_RAD : ''}
+              data-min-margin-m={r.minMargin?.distanceM ?? ''}
+            >
+              {passHeadline(r, units)}
+            </p>
+            <div className="scrubber">
+              <button type="button" data-testid="pass-play" onClick={() => {
+                if (!playing && station >= r.stations.length - 1) show(done, 0);
+                setPlaying(!playing);
+              }}>
+                {playing ? 'Pause' : 'Play'}
+              </button>
+              <input
+                type="range"
+                min={0}
+                max={r.stations.length - 1}
+                step={1}
+                value={station}
+                data-testid="pass-station"
+                aria-label="Station along the path"
+                onChange={(e) => {
+                  setPlaying(false);
+                  show(done, Number(e.target.value));
+                }}
+              />
+              <span className="station-text" data-testid="pass-at">
+                {st ? `${distanceText(st.distanceM, units)} · station ${station} of ${r.stations.length - 1}` : ''}
+              </span>
+            </div>
+            {st ? (
+              <p className="fineprint" data-testid="pass-station-summary">
+                {st.status === 'converged' || st.approximate
+                  ? `Force-angle margin ${(st.forceAngleRad * DEG_PER_RAD).toFixed(1)}°, body roll ${(st.rollRad * DEG_PER_RAD).toFixed(1)}°, pitch ${(st.pitchRad * DEG_PER_RAD).toFixed(1)}°, underbody gap ${(fromSILength(st.clearanceM, units)).toFixed(units === 'metric' ? 3 : 1)} ${lengthUnit(units)}${st.approximate ? ' (approximate solve)' : ''}.`
+                  : `No balance here (${st.status}): the pass stops.`}
+              </p>
+            ) : null}
+            <DistanceChart
+              testId="pass-chart-loads"
+              distances={charts.distances}
+              series={charts.loads}
+              yLabel={`Normal load per tyre (${forceUnit(units)})`}
+              xUnit={distanceUnit(units)}
+              marks={charts.marks}
+              current={cur}
+              onPick={jumpTo}
+              onMark={onMark}
+            />
+            <DistanceChart
+              testId="pass-chart-travel"
+              distances={charts.distances}
+              series={charts.travel}
+              yLabel="Travel used (%; + bump, − droop)"
+              xUnit={distanceUnit(units)}
+              marks={charts.marks}
+              current={cur}
+              yRange={[-100, 100]}
+              onPick={jumpTo}
+              onMark={onMark}
+            />
+            <DistanceChart
+              testId="pass-chart-margins"
+              distances={charts.distances}
+              series={charts.forceAngle}
+              yLabel="Force-angle margin (°)"
+              xUnit={distanceUnit(units)}
+              marks={charts.marks}
+              current={cur}
+              onPick={jumpTo}
+              onMark={onMark}
+              height={120}
+            />
+            <DistanceChart
+              testId="pass-chart-energy"
+              distances={charts.distances}
+              series={charts.energy}
+              yLabel={`Energy margin (${lengthUnit(units)})`}
+              xUnit={distanceUnit(units)}
+              marks={charts.marks}
+              current={cur}
+              onPick={jumpTo}
+              onMark={onMark}
+              height={120}
+            />
+            <h3 className="sub">Events (click to go there)</h3>
+            {r.events.length === 0 ? (
+              <p className="hint">None: every tyre stays loaded and inside its travel.</p>
+            ) : (
+              <ol className="events" data-testid="pass-events">
+                {r.events.map((e, i) => (
+                  <li key={i}>
+                    <button type="button" className="link" data-testid={`pass-event-${i}`} onClick={() => onMark(i)}>
+                      {eventWords(e, units)}
+                    </button>
+                  </li>
+                ))}
+              </ol>
+            )}
+            <p className="fineprint">
+              {r.stations.length} of {r.plannedStations} stations in {done.wallMs.toFixed(0)} ms. Quasi-static: no speed, bounce or driver input; real margins are smaller.
+            </p>
+          </div>
+        ) : null}
+      </details>
+    </section>
+  );
+}
+
+function chartData(r: PassResult, units: Scenario['units']) {
+  const distances = r.stations.map((s) => distanceValue(s.distanceM, units));
+  const ok = (s: PassResult['stations'][number]) => s.status === 'converged' || s.approximate;
+  const loads = WHEEL_NAMES.map((name, k) => ({
+    label: name,
+    colour: WHEEL_COLOURS[k],
+    dash: WHEEL_DASHES[k],
+    values: r.stations.map((s) => (ok(s) ? forceValue(s.wheels[k].loadN, units) : null)),
+  }));
+  const travel = WHEEL_NAMES.map((name, k) => ({
+    label: name,
+    colour: WHEEL_COLOURS[k],
+    dash: WHEEL_DASHES[k],
+    values: r.stations.map((s) => (ok(s) ? 100 * s.wheels[k].travelFraction : null)),
+  }));
+  const forceAngle = [{ label: 'force-angle', colour: '#0b3d91', values: r.stations.map((s) => (ok(s) ? s.forceAngleRad * DEG_PER_RAD : null)) }];
+  const energy = [{ label: 'energy', colour: '#6b3e00', values: r.stations.map((s) => (ok(s) ? fromSILength(s.energyM, units) : null)) }];
+  const marks: DistanceMark[] = r.events.map((e) => ({
+    x: distanceValue(e.startDistanceM, units),
+    label: eventWords(e, units),
+    strong: e.kind === 'tip' || e.kind === 'lifted',
+  }));
+  return { distances, loads, travel, forceAngle, energy, marks };
+}

@@ -1,0 +1,77 @@
+import { useEffect, useMemo } from 'react';
+import * as THREE from 'three';
+import { TerrainField, type PathSpec } from '../core';
+import { usePlumb } from '../app/storeContext';
+
+export interface PathLineProps {
+  /** Height of the line above the ground (m). */
+  liftM?: number;
+  /** Samples along the line. */
+  samples?: number;
+}
+
+/** Draws a path on the ground, following the terrain: from its start to its end. */
+function pathPositions(field: TerrainField, p: PathSpec, liftM: number, samples: number): Float32Array {
+  const out = new Float32Array(3 * (samples + 1));
+  for (let i = 0; i <= samples; i++) {
+    const f = i / samples;
+    const x = p.fromM[0] + f * (p.toM[0] - p.fromM[0]);
+    const y = p.fromM[1] + f * (p.toM[1] - p.fromM[1]);
+    out[3 * i] = x;
+    out[3 * i + 1] = y;
+    out[3 * i + 2] = field.height(x, y) + liftM;
+  }
+  return out;
+}
+
+/**
+ * The scenario's path (thin, dark) and the line chosen from a line sweep (thick, blue), draped on
+ * the terrain. The reference point (ground, midway between the axles) travels along them.
+ */
+export function PathLine({ liftM = 0.03, samples = 200 }: PathLineProps) {
+  const terrain = usePlumb((s) => s.scenario.terrain);
+  const path = usePlumb((s) => s.scenario.path);
+  const chosen = usePlumb((s) => s.overlayPath);
+  const lines = useMemo(() => {
+    const field = new TerrainField(terrain);
+    const make = (p: PathSpec | null, color: string) => {
+      if (!p) return null;
+      const g = new THREE.BufferGeometry();
+      g.setAttribute('position', new THREE.BufferAttribute(pathPositions(field, p, liftM, samples), 3));
+      return new THREE.Line(g, new THREE.LineBasicMaterial({ color }));
+    };
+    return { field, path: make(path, '#3b3328'), chosen: make(chosen, '#0072B2') };
+  }, [terrain, path, chosen, liftM, samples]);
+  useEffect(
+    () => () => {
+      for (const l of [lines.path, lines.chosen]) {
+        if (!l) continue;
+        l.geometry.dispose();
+        (l.material as THREE.Material).dispose();
+      }
+    },
+    [lines],
+  );
+  return (
+    <group name="paths">
+      {lines.path ? <primitive object={lines.path} /> : null}
+      {lines.chosen ? <primitive object={lines.chosen} /> : null}
+      {chosen && lines.chosen ? <ChosenMarks path={chosen} field={lines.field} liftM={liftM} /> : null}
+    </group>
+  );
+}
+
+/** Small posts at the start and end of the chosen line, so it reads from far. */
+function ChosenMarks({ path, field, liftM }: { path: PathSpec; field: TerrainField; liftM: number }) {
+  const ends = [path.fromM, path.toM];
+  return (
+    <>
+      {ends.map((p, i) => (
+        <mesh key={i} position={[p[0], p[1], field.height(p[0], p[1]) + liftM + 0.15]} rotation={[Math.PI / 2, 0, 0]}>
+          <cylinderGeometry args={[0.05, 0.05, 0.3, 8]} />
+          <meshBasicMaterial color="#0072B2" />
+        </mesh>
+      ))}
+    </>
+  );
+}
