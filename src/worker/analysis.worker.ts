@@ -20,7 +20,7 @@ import {
   type AppliedBuild,
 } from '../core';
 import type { WorkerReply, WorkerRequest } from './messages';
-import { solvePassStations } from './passReplay';
+import { runPassWithSolves } from './passReplay';
 
 const post = (m: WorkerReply): void => (self as unknown as DedicatedWorkerGlobalScope).postMessage(m);
 const RAD_PER_DEG = Math.PI / 180;
@@ -40,10 +40,7 @@ function handle(req: WorkerRequest): void {
       if (!s.path) throw new Error('the scenario has no path');
       const model = buildModel(s.vehicle, s.terrain);
       const opts = passOptionsOf(s);
-      // Progress: the pass, then the full solves for the scene (cheaper: warm starts all along).
-      const result = runPass(model, s.path, { ...opts, onProgress: (d, t) => progress(d, 2 * t, 'pass') });
-      const n = result.stations.length;
-      const solved = solvePassStations(model, result, opts, (d) => progress(n + d, 2 * n, 'stations'));
+      const { result, solved } = runPassWithSolves(model, s.path, { ...opts, onProgress: (d, t) => progress(d, t, 'pass') });
       post({ type: 'pass', id: req.id, result, solved, wallMs: performance.now() - t0 });
       return;
     }

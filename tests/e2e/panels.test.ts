@@ -19,10 +19,9 @@ import {
   esc,
   parseScenario,
   passOptionsOf,
-  runPass,
   type Scenario,
 } from '../../src/core';
-import { solvePassStations } from '../../src/worker/passReplay';
+import { runPassWithSolves } from '../../src/worker/passReplay';
 import { isHarmless, launchChromium, waitForScene } from './browser';
 
 const ARTIFACTS = resolve(import.meta.dirname, '../../test-artifacts');
@@ -80,8 +79,7 @@ async function panelShot(heading: string, file: string): Promise<void> {
 it('obstacle pass: the headline is the core\'s, scrubbing poses the vehicle at the station with its loads, an event jumps there', async () => {
   const s = scenarioOf(ledge);
   const model = buildModel(s.vehicle, s.terrain);
-  const pass = runPass(model, s.path!, passOptionsOf(s));
-  const solved = solvePassStations(buildModel(s.vehicle, s.terrain), pass, passOptionsOf(s));
+  const { result: pass, solved } = runPassWithSolves(model, s.path!, passOptionsOf(s));
   expect(pass.firstUnload).not.toBeNull();
   expect(pass.events.length).toBeGreaterThan(2);
   await openLedge();

@@ -13,7 +13,7 @@ import demo from '../../assets/scenarios/side-hill-stock.json';
 import buildsDemo from '../../assets/scenarios/side-hill-builds.json';
 import { applyBuild, buildModel, parseScenario, passOptionsOf, runPass, solveEquilibrium, type Scenario, type Vehicle } from '../../src/core';
 import { createPlumbStore, shownModel, shownPose, shownResult, shownVehicle } from '../../src/store/store';
-import { solvePassStations } from '../../src/worker/passReplay';
+import { runPassWithSolves } from '../../src/worker/passReplay';
 import { passHeadline } from '../../src/app/passWords';
 
 function scenarioOf(data: unknown): Scenario {
@@ -31,12 +31,13 @@ function coldLoads(v: Vehicle, s: Scenario): number[] {
 const LOAD_EPS_N = 0.01;
 
 describe('pass replay (the full solve per station, for the scene)', () => {
-  it('gives at every station exactly the loads runPass found (the same sequence of solves)', () => {
+  it('gives at every station the solve the pass summary was made from, and the same pass as runPass alone', () => {
     const s = scenarioOf(demo);
     expect(s.path).not.toBeNull();
     const model = buildModel(s.vehicle, s.terrain);
     const pass = runPass(model, s.path!, passOptionsOf(s));
-    const solved = solvePassStations(buildModel(s.vehicle, s.terrain), pass, passOptionsOf(s));
+    const { result, solved } = runPassWithSolves(buildModel(s.vehicle, s.terrain), s.path!, passOptionsOf(s));
+    expect(result.stations.map((st) => st.wheels.map((w) => w.loadN))).toEqual(pass.stations.map((st) => st.wheels.map((w) => w.loadN)));
     expect(solved).toHaveLength(pass.stations.length);
     expect(pass.stations.length).toBeGreaterThan(100);
     for (let i = 0; i < solved.length; i++) {
@@ -63,8 +64,7 @@ describe('shown poses', () => {
     const s = scenarioOf(demo);
     const store = createPlumbStore(s);
     const model = buildModel(s.vehicle, s.terrain);
-    const pass = runPass(model, s.path!, passOptionsOf(s));
-    const solved = solvePassStations(model, pass, passOptionsOf(s));
+    const { result: pass, solved } = runPassWithSolves(model, s.path!, passOptionsOf(s));
     const i = Math.floor(pass.stations.length / 2);
     const before = store.getState().scenario;
     store.getState().showStation('station', pass.stations[i].pose, solved[i]);

@@ -35,6 +35,8 @@ export interface PassOptions {
   readonly onProgress?: (done: number, total: number) => void;
   /** Newton iteration cap per station. @default the solver's */
   readonly maxIterations?: number;
+  /** Called with each station and the full solve it was made from (for drawing the vehicle there). */
+  readonly onStation?: (station: PassStation, result: SolveResult) => void;
 }
 
 export interface PassWheel {
@@ -223,6 +225,7 @@ export function runPass(model: VehicleModel, path: PathSpec, opts: PassOptions =
       clearancePart: clearance.part,
     };
     stations.push(station);
+    opts.onStation?.(station, r);
 
     if (!ok) {
       // The tip: its margin counts as at most zero (no equilibrium is no margin at all).
