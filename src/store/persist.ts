@@ -45,14 +45,22 @@ export function loadAutosave(storage: KeyValueStorage): { scenario: Scenario; un
   }
 }
 
+/** Shown (as an import warning) while autosave cannot write; removed once a save succeeds again. */
+export const AUTOSAVE_FAILED_NOTE =
+  'Autosave failed: the browser\'s storage for this site is full or turned off, so this edit is not saved for the next visit. Your work is still open in this tab; use "Save file" to keep a copy.';
+
 /** Save on every change of the scenario or units. Returns the unsubscribe function. */
 export function autosave(store: PlumbStore, storage: KeyValueStorage): () => void {
   const save = (s: Scenario, units: UnitSystem): void => {
+    const warnings = store.getState().importWarnings;
     try {
       storage.setItem(AUTOSAVE_KEY, JSON.stringify({ scenario: scenarioToFile(s), units }));
     } catch {
-      // Storage full or disabled (private mode): the app still works, it just cannot autosave.
+      // Storage full or disabled (private mode): the app still works, it just cannot autosave; say so once.
+      if (!warnings.includes(AUTOSAVE_FAILED_NOTE)) store.setState({ importWarnings: [...warnings, AUTOSAVE_FAILED_NOTE] });
+      return;
     }
+    if (warnings.includes(AUTOSAVE_FAILED_NOTE)) store.setState({ importWarnings: warnings.filter((w) => w !== AUTOSAVE_FAILED_NOTE) });
   };
   return store.subscribe((st, prev) => {
     if (st.scenario !== prev.scenario || st.units !== prev.units) save(st.scenario, st.units);

@@ -8,6 +8,10 @@
  * object's refinements once any of its fields fails, and we want every error in one pass.
  */
 import * as z from 'zod';
+
+// Never generate code: zod's compiled fast path (and its `new Function` probe) stays off, so the app
+// runs under a Content-Security-Policy without 'unsafe-eval' (tests/e2e/hardening.test.ts).
+z.config({ jitless: true });
 import type { UnitSystem } from './types';
 import { metricToFileUnits, unitLabel, type QuantityKind } from './units';
 import { describeValue, withUnit } from './messages';

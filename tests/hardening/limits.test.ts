@@ -1,0 +1,155 @@
+/**
+ * Hardening: the size limits (docs/limits.md). A grid exactly at SCENARIO_LIMITS.gridNodes
+ * (2048 × 2048) loads and a pose on it solves, in bounded time and memory; one node over is
+ * refused with a message naming the limit. Every other limit: at the limit accepted, one over
+ * refused with a message that names the field and the limit.
+ */
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { buildModel, parseScenario, parseScenarioText, solveEquilibrium, SCENARIO_LIMITS } from '../../src/core/index';
+import { runCli } from '../../src/cli/main';
+import type { CliIO } from '../../src/cli/command';
+
+const STOCK = readFileSync('assets/scenarios/side-hill-stock.json', 'utf8');
+const stock = (): Record<string, any> => JSON.parse(STOCK);
+/** Longest this machine may take for the at-limit grid before the test gives up (skips, with a message). */
+const GRID_BUDGET_MS = 60_000;
+
+/** A gentle surface (a few cm of relief), cheap to compute: heights in m, row-major. */
+function gridHeights(cols: number, rows: number): number[] {
+  const h = new Array<number>(cols * rows);
+  for (let r = 0; r < rows; r++) for (let c = 0; c < cols; c++) h[r * cols + c] = 0.03 * Math.sin(0.05 * c) * Math.cos(0.04 * r);
+  return h;
+}
+
+const messages = (r: ReturnType<typeof parseScenario>): string[] => (r.ok ? [] : r.errors.map((e) => `${e.path}: ${e.message}`));
+
+describe('grid at the node limit', () => {
+  it(`a ${2048} × ${2048} grid (exactly SCENARIO_LIMITS.gridNodes) loads and a pose on it solves`, (ctx) => {
+    expect(2048 * 2048).toBe(SCENARIO_LIMITS.gridNodes);
+    const t0 = performance.now();
+    const mem0 = process.memoryUsage();
+    const file = stock();
+    // 0.05 m spacing: a 102 m square centred on the origin, the vehicle at the pose of the demo.
+    file.terrain.features = [{ type: 'grid', origin: [-51.2, -51.2], spacing: 0.05, cols: 2048, rows: 2048, heights: gridHeights(2048, 2048) }];
+    const parsed = parseScenario(file);
+    const parseMs = performance.now() - t0;
+    expect(messages(parsed)).toEqual([]);
+    if (!parsed.ok) return;
+    if (parseMs > GRID_BUDGET_MS) {
+      console.warn(`[hardening] at-limit grid: parsing took ${(parseMs / 1000).toFixed(1)} s (> 60 s) on this machine; the solve part is skipped`);
+      ctx.skip();
+    }
+    const g = parsed.scenario.terrain.features[0];
+    expect(g.type).toBe('grid');
+    if (g.type === 'grid') expect(g.heightsM.length).toBe(SCENARIO_LIMITS.gridNodes);
+    const t1 = performance.now();
+    const s = parsed.scenario;
+    const model = buildModel(s.vehicle, s.terrain);
+    const r = solveEquilibrium(model, s.pose, { tilt: s.tilt, friction: s.friction });
+    const solveMs = performance.now() - t1;
+    const mem1 = process.memoryUsage();
+    const grownMb = (mem1.rss - mem0.rss) / 2 ** 20;
+    console.log(
+      `[hardening] at-limit grid (${SCENARIO_LIMITS.gridNodes} nodes): parse ${parseMs.toFixed(0)} ms, model + solve ${solveMs.toFixed(0)} ms, ` +
+        `status ${r.status}, resident memory +${grownMb.toFixed(0)} MB (heap ${(mem1.heapUsed / 2 ** 20).toFixed(0)} MB)`,
+    );
+    expect(r.status).toBe('converged');
+    for (const w of r.wheels) expect(Number.isFinite(w.loadN) && w.loadN > 0).toBe(true);
+    // Bounds for "reasonable" on this 2-core machine (the heights alone are 32 MiB as Float64).
+    expect(parseMs + solveMs).toBeLessThan(GRID_BUDGET_MS);
+    expect(grownMb).toBeLessThan(1024);
+  }, 120_000);
+
+  it('one node over (5 × 838,861 = 4,194,305 nodes) is refused with messages naming the limit', () => {
+    const file = stock();
+    const cols = 5;
+    const rows = 838_861;
+    expect(cols * rows).toBe(SCENARIO_LIMITS.gridNodes + 1);
+    file.terrain.features.push({ type: 'grid', origin: [0, 0], spacing: 0.05, cols, rows, heights: new Array(cols * rows).fill(0) });
+    const m = messages(parseScenario(file));
+    expect(m).toContain(`terrain.features[1]: cols × rows must be ≤ ${SCENARIO_LIMITS.gridNodes} nodes, got ${SCENARIO_LIMITS.gridNodes + 1}`);
+    expect(m).toContain(`terrain.features[1].heights: must have at most ${SCENARIO_LIMITS.gridNodes} values, got ${SCENARIO_LIMITS.gridNodes + 1}`);
+  });
+});
+
+describe('the other limits: at the limit accepted, one over refused naming the field and the limit', () => {
+  it(`features: ${SCENARIO_LIMITS.features}`, () => {
+    const at = stock();
+    at.terrain.features = Array.from({ length: SCENARIO_LIMITS.features }, (_, i) => ({ type: 'rock', x: 20 + i, y: 20, height: 0.1, radius: 0.2 }));
+    expect(messages(parseScenario(at))).toEqual([]);
+    at.terrain.features.push({ type: 'rock', x: 0, y: 20, height: 0.1, radius: 0.2 });
+    expect(messages(parseScenario(at))).toEqual([`terrain.features: must have at most ${SCENARIO_LIMITS.features} features, got ${SCENARIO_LIMITS.features + 1}`]);
+  });
+
+  it(`payload items: ${SCENARIO_LIMITS.payloadItems}`, () => {
+    const at = stock();
+    at.vehicle.payload = Array.from({ length: SCENARIO_LIMITS.payloadItems }, (_, i) => ({ label: `crate ${i}`, mass: 1, behindFrontAxle: 1.5, height: 1 }));
+    expect(messages(parseScenario(at))).toEqual([]);
+    at.vehicle.payload.push({ label: 'one more', mass: 1, behindFrontAxle: 1.5, height: 1 });
+    expect(messages(parseScenario(at))).toEqual([`vehicle.payload: must have at most ${SCENARIO_LIMITS.payloadItems} payload items, got ${SCENARIO_LIMITS.payloadItems + 1}`]);
+  });
+
+  it(`profile points: ${SCENARIO_LIMITS.profilePoints}`, () => {
+    const at = stock();
+    const points = Array.from({ length: SCENARIO_LIMITS.profilePoints }, (_, i) => [i * 0.01 - 500, 0]);
+    at.terrain.features.push({ type: 'profile', axis: 'x', points });
+    expect(messages(parseScenario(at))).toEqual([]);
+    points.push([1e3, 0]);
+    expect(messages(parseScenario(at))).toEqual([`terrain.features[1].points: must have at most ${SCENARIO_LIMITS.profilePoints} points, got ${SCENARIO_LIMITS.profilePoints + 1}`]);
+  });
+
+  it(`path stations: ${SCENARIO_LIMITS.pathStations}`, () => {
+    const at = stock();
+    // 99,999 m in 1 m steps: floor(99999 / 1) + 1 = 100,000 stations exactly (whole numbers: no rounding).
+    at.path = { from: [0, 0], to: [99_999, 0], step: 1 };
+    expect(messages(parseScenario(at))).toEqual([]);
+    at.path = { from: [0, 0], to: [100_000, 0], step: 1 };
+    const m = messages(parseScenario(at));
+    expect(m).toHaveLength(1);
+    expect(m[0]).toMatch(new RegExp(`^path\\.step: must be ≥ [\\d.]+ m for at most ${SCENARIO_LIMITS.pathStations} stations on this path, got 1$`));
+  });
+
+  it(`name and notes: ${SCENARIO_LIMITS.nameChars} and ${SCENARIO_LIMITS.notesChars} characters`, () => {
+    const at = stock();
+    at.name = 'n'.repeat(SCENARIO_LIMITS.nameChars);
+    at.notes = 'n'.repeat(SCENARIO_LIMITS.notesChars);
+    expect(messages(parseScenario(at))).toEqual([]);
+    at.name += 'n';
+    at.notes += 'n';
+    expect(messages(parseScenario(at))).toEqual([
+      `name: must be at most ${SCENARIO_LIMITS.nameChars} characters, got ${SCENARIO_LIMITS.nameChars + 1}`,
+      `notes: must be at most ${SCENARIO_LIMITS.notesChars} characters, got ${SCENARIO_LIMITS.notesChars + 1}`,
+    ]);
+  });
+
+  it(`file size: ${SCENARIO_LIMITS.fileChars} characters (parseScenarioText)`, () => {
+    // At the limit: the demo padded with trailing spaces up to exactly fileChars (JSON allows them).
+    const atText = STOCK + ' '.repeat(SCENARIO_LIMITS.fileChars - STOCK.length);
+    expect(atText.length).toBe(SCENARIO_LIMITS.fileChars);
+    const t0 = performance.now();
+    expect(messages(parseScenarioText(atText))).toEqual([]);
+    const over = atText + ' ';
+    expect(messages(parseScenarioText(over))).toEqual([`(file): must be at most ${SCENARIO_LIMITS.fileChars} characters, got ${SCENARIO_LIMITS.fileChars + 1}`]);
+    expect(performance.now() - t0).toBeLessThan(20_000);
+  }, 60_000);
+
+  it('line sweep (CLI `lines`): at most 10,000 steps per range and 5,000 lines', async () => {
+    const out: string[] = [];
+    const err: string[] = [];
+    const io: CliIO = { out: (l) => void out.push(l), err: (l) => void err.push(l), readFile: (p) => readFileSync(p, 'utf8') };
+    const file = 'assets/scenarios/ledge-crawler.json';
+    // A range of more than 10,000 steps: refused before any line is made.
+    expect(await runCli(['lines', file, '--offset', '0:10001:1', '--quiet'], io)).not.toBe(0);
+    expect(err.join('\n')).toContain('--offset: at most 10000 values, got "0:10001:1"');
+    err.length = 0;
+    // Exactly 10,000 steps passes the range check (10,001 values, one more than the message says) and
+    // then meets the line limit. (Two such ranges would make 10,001² lines before that check: see docs/limits.md.)
+    expect(await runCli(['lines', file, '--offset', '0:10000:1', '--quiet'], io)).not.toBe(0);
+    expect(err.join('\n')).toContain('lines: the ranges give 10001 lines; must be 1 to 5000');
+    err.length = 0;
+    // 101 × 51 = 5,151 lines: over the 5,000 line limit.
+    expect(await runCli(['lines', file, '--offset', '-1:1:0.02', '--heading', '-5:5:0.2', '--quiet'], io)).not.toBe(0);
+    expect(err.join('\n')).toMatch(/lines: the ranges give 5151 lines; must be 1 to 5000/);
+  });
+});
