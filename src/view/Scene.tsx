@@ -31,7 +31,9 @@ const PRESETS: readonly [ViewPreset, string][] = [
 /** The 3D view: tilt table with terrain and vehicle, loads, CG and plumb line, support polygon. */
 export function Scene({ onApi }: SceneProps) {
   const api = useMemo(makeSceneApi, []);
-  useEffect(() => onApi?.(api), [api, onApi]);
+  useEffect(() => {
+    onApi?.(api);
+  }, [api, onApi]);
   return (
     <SceneContext.Provider value={api}>
       <div className="scene" data-testid="scene">
