@@ -24,7 +24,11 @@ function initial(): { scenario: Scenario; units: UnitSystem; note: string | null
   if (saved) return { ...saved, note: fromLink && !fromLink.ok ? 'The share link could not be read; your last work was restored.' : null };
   const parsed = parseScenario(demo);
   if (!parsed.ok) throw new Error(`app: the bundled demo scenario does not validate: ${parsed.errors.map((e) => `${e.path}: ${e.message}`).join('; ')}`);
-  return { scenario: parsed.scenario, units: parsed.scenario.units, note: null };
+  return {
+    scenario: parsed.scenario,
+    units: parsed.scenario.units,
+    note: fromLink && !fromLink.ok ? 'The share link could not be read; the bundled demo is open instead.' : null,
+  };
 }
 
 const start = initial();

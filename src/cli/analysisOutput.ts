@@ -44,7 +44,7 @@ export function parseRange(option: string, text: string): { from: number; to: nu
   const [from, to, step] = nums;
   if (to < from) throw new UsageError(`--${option}: TO must be ≥ FROM, got "${text}"`);
   if (!(step > 0)) throw new UsageError(`--${option}: STEP must be > 0, got "${text}"`);
-  if ((to - from) / step > 10_000) throw new UsageError(`--${option}: at most 10000 values, got "${text}"`);
+  if ((to - from) / step > 10_000) throw new UsageError(`--${option}: at most 10000 steps (10001 values), got "${text}"`);
   return { from, to, step };
 }
 

@@ -223,7 +223,7 @@ describe('saved work', () => {
     await ctx.close();
   });
 
-  it.fails('KNOWN GAP: a damaged share link with no earlier work opens the demo with a message (today: no message)', async () => {
+  it('a damaged share link with no earlier work opens the demo and says the link could not be read', async () => {
     const ctx = await newContext();
     const page = await ctx.newPage();
     await open(page, '#s=AAAA');

@@ -141,7 +141,7 @@ describe('the other limits: at the limit accepted, one over refused naming the f
     const file = 'assets/scenarios/ledge-crawler.json';
     // A range of more than 10,000 steps: refused before any line is made.
     expect(await runCli(['lines', file, '--offset', '0:10001:1', '--quiet'], io)).not.toBe(0);
-    expect(err.join('\n')).toContain('--offset: at most 10000 values, got "0:10001:1"');
+    expect(err.join('\n')).toContain('--offset: at most 10000 steps (10001 values), got "0:10001:1"');
     err.length = 0;
     // Exactly 10,000 steps passes the range check (10,001 values, one more than the message says) and
     // then meets the line limit. (Two such ranges would make 10,001² lines before that check: see docs/limits.md.)

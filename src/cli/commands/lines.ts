@@ -1,5 +1,5 @@
 /** `plumbline lines FILE --offset FROM:TO:STEP --heading FROM:TO:STEP`: sweep lines, rank by smallest margin. */
-import { makeLines, rankLines, toSI, type LineSummary } from '../../core/index';
+import { makeLines, rangeCount, rankLines, toSI, type LineSummary } from '../../core/index';
 import { EXIT_BAD_INPUT, EXIT_OK, type CommandSpec } from '../command';
 import { formatKeyValues, formatTable } from '../format';
 import { loadScenarioFile, toJsonText } from '../load';
@@ -61,15 +61,15 @@ export const linesCommand: CommandSpec = {
     const hd = parseRange('heading', String(args.options.heading));
     // Offsets in the file's length unit, headings in degrees: converted here, at the edge.
     const m = (v: number) => toSI('length', v, s.units);
-    const lines = makeLines(
-      s.path,
-      { from: m(off.from), to: m(off.to), step: m(off.step) },
-      { from: hd.from * RAD_PER_DEG, to: hd.to * RAD_PER_DEG, step: hd.step * RAD_PER_DEG },
-    );
-    if (lines.length === 0 || lines.length > MAX_LINES) {
-      io.err(`lines: the ranges give ${lines.length} lines; must be 1 to ${MAX_LINES}`);
+    const offsets = { from: m(off.from), to: m(off.to), step: m(off.step) };
+    const headings = { from: hd.from * RAD_PER_DEG, to: hd.to * RAD_PER_DEG, step: hd.step * RAD_PER_DEG };
+    // Count before building: two long ranges would otherwise build millions of lines first.
+    const count = rangeCount(offsets) * rangeCount(headings);
+    if (count === 0 || count > MAX_LINES) {
+      io.err(`lines: the ranges give ${count} lines; must be 1 to ${MAX_LINES}`);
       return EXIT_BAD_INPUT;
     }
+    const lines = makeLines(s.path, offsets, headings);
     const workersOpt = args.options.workers;
     if (workersOpt !== undefined && !(Number.isInteger(workersOpt) && (workersOpt as number) >= 0)) {
       io.err(`--workers: must be a whole number ≥ 0, got ${String(workersOpt)}`);

@@ -60,6 +60,12 @@ export interface LineSummary {
 }
 
 /** The values of a range: from, from + step, ... up to to (within a rounding tolerance). */
+/** How many values rangeValues(r) gives, without building them. */
+export function rangeCount(r: SweepRange): number {
+  if (!(r.step > 0) || r.to < r.from) return r.from === r.to ? 1 : 0;
+  return Math.floor((r.to - r.from) / r.step + 1e-9) + 1;
+}
+
 export function rangeValues(r: SweepRange): number[] {
   if (!(r.step > 0) || r.to < r.from) return r.from === r.to ? [r.from] : [];
   const n = Math.floor((r.to - r.from) / r.step + 1e-9);
