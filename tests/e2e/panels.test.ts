@@ -136,7 +136,7 @@ it('obstacle pass: the headline is the core\'s, scrubbing poses the vehicle at t
   expect(errors).toEqual([]);
 });
 
-it('compare builds: one row per build (the vehicle as given first); two builds in the scene, one as an outline', async () => {
+it('compare builds: one column per build (the vehicle as given first); two builds in the scene, one as an outline', async () => {
   const s = scenarioOf(ledge);
   const n = s.builds!.length + 1;
   await openLedge();
@@ -144,8 +144,10 @@ it('compare builds: one row per build (the vehicle as given first); two builds i
   await page.getByTestId('compare-run').click();
   const table = page.getByTestId('compare-table');
   await table.waitFor({ timeout: 90_000 });
-  await expect(table.locator('tbody tr').count()).resolves.toBe(n);
-  const names = await table.locator('tbody tr th').allTextContents();
+  // Builds are the columns (after the quantity names), every quantity of the compare command a row.
+  await expect(table.locator('thead th').count()).resolves.toBe(n + 1);
+  await expect(table.locator('tbody tr').count()).resolves.toBe(19);
+  const names = (await table.locator('thead th').allTextContents()).slice(1);
   expect(names[0]).toContain('as given');
   s.builds!.forEach((b, i) => expect(names[i + 1]).toContain(b.name));
   // The second build solid, the first as an outline.
@@ -161,6 +163,8 @@ it('compare builds: one row per build (the vehicle as given first); two builds i
   await expect.poll(() => page.evaluate(() => window.__plumbline!.store.getState().shown?.vehicle.name ?? '')).toContain(s.builds![0].name);
   await page.getByTestId('view-corner').click();
   await page.screenshot({ path: resolve(ARTIFACTS, 'compare-scene.png') });
+  // The panel (build list and 19-row table) is taller than the side column at 800 px.
+  await page.setViewportSize({ width: 1280, height: 2000 });
   await panelShot('compare-h', 'compare-panel.png');
   expect(errors).toEqual([]);
 });

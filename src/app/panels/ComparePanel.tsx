@@ -1,32 +1,45 @@
 import { useEffect, useRef, useState } from 'react';
-import type { BuildRow, MetricName, Scenario } from '../../core';
+import { MAX_BUILDS, type BuildRow, type MetricName, type Scenario } from '../../core';
 import buildsDemo from '../../../assets/scenarios/side-hill-builds.json';
 import { runJob, type Job } from '../../worker/client';
 import type { ReplyOf } from '../../worker/messages';
-import { DEG_PER_RAD, distanceText, fromSILength, lengthUnit } from '../format';
+import { DEG_PER_RAD, distanceUnit, distanceValue, fromSILength, lengthUnit } from '../format';
 import { usePlumb, usePlumbStore } from '../storeContext';
+import { BuildsForm } from './BuildsForm';
 
 type Done = ReplyOf<'compare'> & { readonly for: Scenario };
 
 const buildLabel = (name: string): string => `the build "${name}"`;
-type Kind = 'ratio' | 'length' | 'angle' | 'distance';
+type Kind = 'ratio' | 'length' | 'angle' | 'distance' | 'direction';
 
-/** Columns of the table (the compare command's quantities, the most asked-for first). */
-const COLUMNS: readonly (readonly [MetricName, string, Kind])[] = [
-  ['ssf', 'SSF', 'ratio'],
-  ['cgHeightM', 'CG height', 'length'],
+/**
+ * Rows of the table: every quantity the compare command prints, in its order (builds are the
+ * columns, as in the command's table).
+ */
+const QUANTITIES: readonly (readonly [MetricName, string, Kind])[] = [
+  ['ssf', 'SSF (T/2h)', 'ratio'],
+  ['cgHeightM', 'CG height with payload', 'length'],
   ['trackMeanM', 'Mean track', 'length'],
-  ['leftDownLiftRad', 'Left down: lift', 'angle'],
-  ['leftDownTipRad', 'Left down: tip', 'angle'],
-  ['rightDownLiftRad', 'Right down: lift', 'angle'],
-  ['rightDownTipRad', 'Right down: tip', 'angle'],
+  ['noseDownLiftRad', 'Nose down: first lift', 'angle'],
   ['noseDownTipRad', 'Nose down: tip', 'angle'],
+  ['tailDownLiftRad', 'Tail down: first lift', 'angle'],
   ['tailDownTipRad', 'Tail down: tip', 'angle'],
-  ['weakestTipRad', 'Weakest tip', 'angle'],
+  ['leftDownLiftRad', 'Left down: first lift', 'angle'],
+  ['leftDownTipRad', 'Left down: tip', 'angle'],
+  ['rightDownLiftRad', 'Right down: first lift', 'angle'],
+  ['rightDownTipRad', 'Right down: tip', 'angle'],
+  ['weakestDownhillRad', 'Weakest direction', 'direction'],
+  ['weakestTipRad', 'Weakest direction: tip', 'angle'],
+  ['passFirstUnloadM', 'Pass: first wheel light at', 'distance'],
   ['passFirstLiftM', 'Pass: first lift at', 'distance'],
-  ['passMinForceAngleRad', 'Pass: least margin', 'angle'],
-  ['passMinClearanceM', 'Pass: least gap', 'length'],
+  ['passTipM', 'Pass: tips at', 'distance'],
+  ['passMinForceAngleRad', 'Pass: smallest force-angle', 'angle'],
+  ['passMinEnergyM', 'Pass: energy margin there', 'length'],
+  ['passMinClearanceM', 'Pass: least clearance', 'length'],
 ];
+
+/** A change of direction, the short way round (−180° to 180°). */
+const wrapRad = (a: number): number => Math.atan2(Math.sin(a), Math.cos(a));
 
 /**
  * Builds side by side: the vehicle as given and each build of the scenario, as the compare
@@ -76,13 +89,21 @@ export function ComparePanel() {
     else store.getState().showBuild(rows[i].vehicle, buildLabel(rows[i].name), 'ghost');
   };
 
-  const cell = (kind: Kind, v: number | null, signed = false): string => {
-    if (v === null) return '–';
-    const sign = signed && v > 0 ? '+' : '';
-    if (kind === 'ratio') return `${sign}${v.toFixed(3)}`;
-    if (kind === 'angle') return `${sign}${(v * DEG_PER_RAD).toFixed(1)}°`;
-    if (kind === 'distance') return `${sign}${distanceText(v, units)}`;
-    return `${sign}${fromSILength(v, units).toFixed(units === 'metric' ? 3 : 1)} ${lengthUnit(units)}`;
+  const unitOf = (kind: Kind): string =>
+    kind === 'length' ? lengthUnit(units) : kind === 'distance' ? distanceUnit(units) : kind === 'ratio' ? '' : '°';
+  /** A value or (signed) its change, in the unit named at the row; '–' where it does not apply. */
+  const cell = (kind: Kind, si: number | null, signed = false): string => {
+    if (si === null) return '–';
+    const v = kind === 'direction' ? (signed ? wrapRad(si) : ((si % (2 * Math.PI)) + 2 * Math.PI) % (2 * Math.PI)) : si;
+    let text: string;
+    if (kind === 'direction') text = (v * DEG_PER_RAD).toFixed(0);
+    else if (kind === 'ratio') text = v.toFixed(3);
+    else if (kind === 'angle') text = (v * DEG_PER_RAD).toFixed(1);
+    else if (kind === 'distance') text = distanceValue(v, units).toFixed(2);
+    else text = fromSILength(v, units).toFixed(units === 'metric' ? 3 : 1);
+    // No "+" or "−" on a change that rounds to zero.
+    if (signed && Number(text) === 0) return text.replace(/^-/, '');
+    return signed && v > 0 ? `+${text}` : text;
   };
 
   return (
@@ -91,9 +112,10 @@ export function ComparePanel() {
         <summary>
           <h2 id="compare-h">Compare builds ({builds.length})</h2>
         </summary>
+        <BuildsForm />
         {builds.length === 0 ? (
           <>
-            <p className="hint">This scenario has no builds to compare. Builds are listed in the scenario file ("builds": lift, tyres, wheels and spacers, payload, anti-roll bars, travel).</p>
+            <p className="hint">This scenario has no builds to compare: add one above, or open the demo (the builds are kept in the scenario file's "builds" list).</p>
             <button type="button" data-testid="compare-demo" onClick={() => store.getState().importData(buildsDemo)}>
               Open the builds demo
             </button>
@@ -102,6 +124,7 @@ export function ComparePanel() {
           <>
             <p className="hint">
               The vehicle as given and {builds.length} build{builds.length === 1 ? '' : 's'}: {builds.map((b) => b.name).join('; ')}.
+              {builds.length > MAX_BUILDS - 1 ? ` Only the first ${MAX_BUILDS - 1} are compared (${MAX_BUILDS} columns with the vehicle as given).` : ''}
             </p>
             <div className="buttons">
               <button type="button" data-testid="compare-run" disabled={progress !== null} onClick={start}>
@@ -124,25 +147,30 @@ export function ComparePanel() {
               <table className="compare" data-testid="compare-table">
                 <thead>
                   <tr>
-                    <th scope="col">Build</th>
-                    {COLUMNS.map(([k, label]) => (
-                      <th key={k} scope="col">
-                        {label}
+                    <th scope="col">Quantity</th>
+                    {rows.map((r, i) => (
+                      <th key={r.name} scope="col" title={r.changes.join('\n')} data-testid={`compare-build-${i}`}>
+                        [{i + 1}] {r.name}
+                        {i === 0 ? <small> (reference)</small> : null}
                       </th>
                     ))}
                   </tr>
                 </thead>
                 <tbody>
-                  {rows.map((r, i) => (
-                    <tr key={r.name} data-testid={`compare-row-${i}`}>
-                      <th scope="row" title={r.changes.join('\n')}>
-                        {r.name}
-                        {i === 0 ? <small> (reference)</small> : null}
+                  {QUANTITIES.map(([k, label, kind]) => (
+                    <tr key={k} data-testid={`compare-row-${k}`}>
+                      <th scope="row">
+                        {label}
+                        {unitOf(kind) ? <span className="unit"> ({unitOf(kind)})</span> : null}
                       </th>
-                      {COLUMNS.map(([k, , kind]) => (
-                        <td key={k}>
+                      {rows.map((r, i) => (
+                        <td key={r.name} data-testid={`compare-${k}-${i}`} data-value={r.metrics[k] ?? ''}>
                           {cell(kind, r.metrics[k])}
-                          {i > 0 ? <small className="change">{cell(kind, r.change[k], true)}</small> : null}
+                          {i > 0 ? (
+                            <small className="change" data-testid={`compare-${k}-${i}-change`} data-value={r.change[k] ?? ''}>
+                              {cell(kind, r.change[k], true)}
+                            </small>
+                          ) : null}
                         </td>
                       ))}
                     </tr>
@@ -150,7 +178,9 @@ export function ComparePanel() {
                 </tbody>
               </table>
             </div>
-            <p className="fineprint">Second line: change from the first build. Tilt angles on a level tilt table; the pass on the scenario path. Hover a build for what was changed.</p>
+            <p className="fineprint">
+              Builds as columns, [1] the reference; under each value its change from [1]. Tilt angles on a level tilt table; the weakest direction is the downhill direction, counter-clockwise from the nose (90° left side down); the pass on the scenario path (– where no wheel lifts or nothing tips). Hover a build for what was changed.
+            </p>
             <fieldset className="group">
               <legend>In the scene</legend>
               <div className="row">
