@@ -60,11 +60,8 @@ function handle(req: WorkerRequest): void {
       return;
     }
     case 'lines': {
-      if (!s.path) throw new Error('the scenario has no path');
-      const lines = makeLines(s.path, req.offsetsM, req.headingChangesRad);
-      if (lines.length === 0) throw new Error('no lines: check the ranges');
-      const summaries = runLineSweepJob({ vehicle: s.vehicle, terrain: s.terrain, options: passOptionsOf(s), lines }, (_x, d, t) => progress(d, t));
-      post({ type: 'lines', id: req.id, lines, ranked: rankLines(summaries).ranked, wallMs: performance.now() - t0 });
+      const summaries = runLineSweepJob({ vehicle: s.vehicle, terrain: s.terrain, options: passOptionsOf(s), lines: req.lines }, (_x, d, t) => progress(d, t));
+      post({ type: 'lines', id: req.id, summaries, wallMs: performance.now() - t0 });
       return;
     }
     case 'report': {

@@ -1,5 +1,5 @@
 /** Runs analyses in the worker with progress and cancel. One worker per job; cancel terminates it. */
-import type { RoseResult, Scenario, SweepRange } from '../core';
+import { makeLines, rankLines, type LineSpec, type LineSummary, type RoseResult, type Scenario, type SweepRange } from '../core';
 import type { ReplyOf, WorkerReply, WorkerRequest } from './messages';
 
 export interface Job<T> {
@@ -53,6 +53,61 @@ export function runRose(scenario: Scenario, stepDeg: number, onProgress: (done: 
   return runJob({ type: 'rose', scenario, stepDeg }, onProgress);
 }
 
-export function runLines(scenario: Scenario, offsetsM: SweepRange, headingChangesRad: SweepRange, onProgress: OnProgress) {
-  return runJob({ type: 'lines', scenario, offsetsM, headingChangesRad }, onProgress);
+/** A finished line sweep: the lines, ranked by smallest margin, and how many workers ran them. */
+export interface LineSweepReply {
+  readonly lines: readonly LineSpec[];
+  readonly ranked: readonly LineSummary[];
+  readonly wallMs: number;
+  readonly workers: number;
+}
+
+/** Workers for a line sweep: one per core the browser reports, at most four, at least one. */
+function sweepWorkers(lines: number): number {
+  const cores = typeof navigator !== 'undefined' && navigator.hardwareConcurrency > 0 ? navigator.hardwareConcurrency : 1;
+  return Math.max(1, Math.min(4, cores, lines));
+}
+
+/**
+ * A line sweep spread over several workers (the lines dealt out in turn), ranked here when all
+ * are back. Progress counts lines over all workers; cancel stops them all.
+ */
+export function runLines(
+  scenario: Scenario,
+  offsetsM: SweepRange,
+  headingChangesRad: SweepRange,
+  onProgress: OnProgress,
+): Job<LineSweepReply> {
+  const t0 = performance.now();
+  if (!scenario.path) return failed(new Error('the scenario has no path'));
+  const lines = makeLines(scenario.path, offsetsM, headingChangesRad);
+  if (lines.length === 0) return failed(new Error('no lines: check the ranges'));
+  const n = sweepWorkers(lines.length);
+  const parts: LineSpec[][] = Array.from({ length: n }, () => []);
+  lines.forEach((l, i) => parts[i % n].push(l));
+  const doneBy = new Array<number>(n).fill(0);
+  const jobs = parts.map((part, k) =>
+    runJob({ type: 'lines', scenario, lines: part }, (d) => {
+      doneBy[k] = d;
+      onProgress(
+        doneBy.reduce((a, b) => a + b, 0),
+        lines.length,
+      );
+    }),
+  );
+  const done = Promise.all(jobs.map((j) => j.done)).then((replies) => {
+    const summaries = replies.flatMap((r) => r.summaries).sort((a, b) => a.index - b.index);
+    return { lines, ranked: rankLines(summaries).ranked, wallMs: performance.now() - t0, workers: n };
+  });
+  // One failing part stops the others.
+  done.catch(() => jobs.forEach((j) => j.cancel()));
+  return {
+    done,
+    cancel() {
+      for (const j of jobs) j.cancel();
+    },
+  };
+}
+
+function failed<T>(e: Error): Job<T> {
+  return { done: Promise.reject(e), cancel: () => undefined };
 }

@@ -1,5 +1,5 @@
 /** Messages between the app and the analysis worker. Scenarios cross as plain (structured-clone) data. */
-import type { BuildRow, LineSpec, LineSummary, PassResult, RoseResult, Scenario, SolveResult, SweepRange } from '../core';
+import type { BuildRow, LineSpec, LineSummary, PassResult, RoseResult, Scenario, SolveResult } from '../core';
 
 export type WorkerRequest =
   | { readonly type: 'rose'; readonly id: number; readonly scenario: Scenario; readonly stepDeg: number }
@@ -7,8 +7,8 @@ export type WorkerRequest =
   | { readonly type: 'pass'; readonly id: number; readonly scenario: Scenario }
   /** The vehicle as given and each of the scenario's builds, as the compare command runs them. */
   | { readonly type: 'compare'; readonly id: number; readonly scenario: Scenario }
-  /** Lines around the scenario's path: offsets (m) and heading changes (rad). */
-  | { readonly type: 'lines'; readonly id: number; readonly scenario: Scenario; readonly offsetsM: SweepRange; readonly headingChangesRad: SweepRange }
+  /** Some of a line sweep's lines (the app spreads a sweep over several workers). */
+  | { readonly type: 'lines'; readonly id: number; readonly scenario: Scenario; readonly lines: readonly LineSpec[] }
   /** The self-contained HTML report; the picture of the 3D view as a data: URL, or null. */
   | {
       readonly type: 'report';
@@ -24,7 +24,7 @@ export type WorkerReply =
   | { readonly type: 'rose'; readonly id: number; readonly result: RoseResult; readonly wallMs: number }
   | { readonly type: 'pass'; readonly id: number; readonly result: PassResult; readonly solved: readonly SolveResult[]; readonly wallMs: number }
   | { readonly type: 'compare'; readonly id: number; readonly rows: readonly BuildRow[]; readonly wallMs: number }
-  | { readonly type: 'lines'; readonly id: number; readonly lines: readonly LineSpec[]; readonly ranked: readonly LineSummary[]; readonly wallMs: number }
+  | { readonly type: 'lines'; readonly id: number; readonly summaries: readonly LineSummary[]; readonly wallMs: number }
   | { readonly type: 'report'; readonly id: number; readonly html: string; readonly wallMs: number }
   | { readonly type: 'error'; readonly id: number; readonly message: string };
 

@@ -246,6 +246,10 @@ it('line sweep: ranked lines from the worker, the best drawn on the terrain', as
   await expect(list.locator('li').count()).resolves.toBe(3);
   const first = (await list.locator('li').first().textContent()) ?? '';
   expect(first).toMatch(/^Best: /);
+  // The three lines were spread over the browser's cores (one worker each, up to four).
+  const cores = await page.evaluate(() => navigator.hardwareConcurrency);
+  const workers = Math.max(1, Math.min(4, cores, 3));
+  await expect(page.getByText(/lines in \d+ ms on \d+ workers?\./).textContent()).resolves.toContain(`on ${workers} ${workers === 1 ? 'worker' : 'workers'}`);
   // The best line is drawn; picking the worst draws that one instead.
   const best = await page.evaluate(() => window.__plumbline!.store.getState().overlayPath);
   expect(best).not.toBeNull();

@@ -1,12 +1,11 @@
 import { useEffect, useRef, useState } from 'react';
 import type { LineSummary, Scenario, SweepRange } from '../../core';
-import { runLines, type Job } from '../../worker/client';
-import type { ReplyOf } from '../../worker/messages';
+import { runLines, type Job, type LineSweepReply } from '../../worker/client';
 import { DEG_PER_RAD, distanceText, fromSILength, lengthUnit } from '../format';
 import { usePlumb, usePlumbStore } from '../storeContext';
 import { NumberField } from './NumberField';
 
-type Done = ReplyOf<'lines'> & { readonly for: Scenario };
+type Done = LineSweepReply & { readonly for: Scenario };
 
 /** Lines listed at once, best and worst. */
 const SHOWN_LINES = 8;
@@ -45,7 +44,7 @@ export function LinesPanel() {
   const [progress, setProgress] = useState<{ done: number; total: number } | null>(null);
   const [done, setDone] = useState<Done | null>(null);
   const [message, setMessage] = useState<string | null>(null);
-  const job = useRef<Job<ReplyOf<'lines'>> | null>(null);
+  const job = useRef<Job<LineSweepReply> | null>(null);
   useEffect(() => () => job.current?.cancel(), []);
   if (!scenario.path) {
     return (
@@ -140,7 +139,7 @@ export function LinesPanel() {
               </button>
             </div>
             <p className="fineprint">
-              {ranked.length} lines in {done.wallMs.toFixed(0)} ms. The drawn line (blue) is the one picked; the dark line is the scenario path. Static margins only: keep far inside them.
+              {ranked.length} lines in {done.wallMs.toFixed(0)} ms on {done.workers} {done.workers === 1 ? 'worker' : 'workers'}. The drawn line (blue) is the one picked; the dark line is the scenario path. Static margins only: keep far inside them.
             </p>
           </div>
         ) : null}
