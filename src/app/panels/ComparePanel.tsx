@@ -4,7 +4,7 @@ import buildsDemo from '../../../assets/scenarios/side-hill-builds.json';
 import { runJob, type Job } from '../../worker/client';
 import type { ReplyOf } from '../../worker/messages';
 import { DEG_PER_RAD, distanceUnit, distanceValue, fromSILength, lengthUnit } from '../format';
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../storeContext';
 import { BuildsForm } from './BuildsForm';
 
 type Done = ReplyOf<'compare'> & { readonly for: Scenario };
@@ -48,7 +48,8 @@ const wrapRad = (a: number): number => Math.atan2(Math.sin(a), Math.cos(a));
  */
 export function ComparePanel() {
   const store = usePlumbStore();
-  const scenario = usePlumb((s) => s.scenario);
+  // Not re-rendered while the vehicle is dragged: nothing here depends on the pose.
+  const scenario = useScenarioPoseAside();
   const units = usePlumb((s) => s.units);
   const shownLabel = usePlumb((s) => (s.shown?.kind === 'build' ? s.shown.label : null));
   const ghostLabel = usePlumb((s) => s.ghost?.label ?? null);

@@ -2,7 +2,7 @@ import { useEffect, useRef, useState } from 'react';
 import type { LineSummary, Scenario, SweepRange } from '../../core';
 import { runLines, type Job, type LineSweepReply } from '../../worker/client';
 import { DEG_PER_RAD, distanceText, fromSILength, lengthUnit } from '../format';
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../storeContext';
 import { NumberField } from './NumberField';
 
 type Done = LineSweepReply & { readonly for: Scenario };
@@ -36,7 +36,8 @@ function countOf(r: SweepRange): number {
  */
 export function LinesPanel() {
   const store = usePlumbStore();
-  const scenario = usePlumb((s) => s.scenario);
+  // Not re-rendered while the vehicle is dragged: nothing here depends on the pose.
+  const scenario = useScenarioPoseAside();
   const units = usePlumb((s) => s.units);
   const chosen = usePlumb((s) => s.overlayPath);
   const [offsets, setOffsets] = useState<SweepRange>({ from: -1, to: 1, step: 0.5 });

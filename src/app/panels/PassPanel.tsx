@@ -5,7 +5,7 @@ import type { ReplyOf } from '../../worker/messages';
 import { WHEEL_COLOURS, WHEEL_DASHES } from '../../view/colormap';
 import { DEG_PER_RAD, distanceText, distanceUnit, distanceValue, forceUnit, forceValue, fromSILength, lengthUnit } from '../format';
 import { eventWords, passHeadline } from '../passWords';
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../storeContext';
 import { DistanceChart, type DistanceMark } from './DistanceChart';
 
 type Done = ReplyOf<'pass'> & { readonly for: Scenario };
@@ -21,7 +21,8 @@ const PLAY_MS = 50;
  */
 export function PassPanel() {
   const store = usePlumbStore();
-  const scenario = usePlumb((s) => s.scenario);
+  // Not re-rendered while the vehicle is dragged: nothing here depends on the pose.
+  const scenario = useScenarioPoseAside();
   const units = usePlumb((s) => s.units);
   const [progress, setProgress] = useState<{ done: number; total: number } | null>(null);
   const [done, setDone] = useState<Done | null>(null);
