@@ -114,19 +114,24 @@ function norm2(r: Float64Array): number {
   return Number.isFinite(s) ? s : Infinity;
 }
 
-/** Ride-height guess: the body laid on a plane fitted to the ground under the four wheels. */
-export function initialGuess(model: VehicleModel, x: Float64Array): void {
-  x.fill(0);
+const _ground = new Float64Array(4);
+
+/** Ground height under each wheel's ride-height position at the model's pose (m), into out. */
+function groundUnderWheels(model: VehicleModel, out: Float64Array): Float64Array {
   const c = Math.cos(model.headingRad);
   const s = Math.sin(model.headingRad);
-  const h = [0, 0, 0, 0];
   for (let i = 0; i < 4; i++) {
     const ax = model.axles[i >> 1];
     const yb = (i & 1) === 0 ? ax.trackM / 2 : -ax.trackM / 2;
-    const wx = model.poseX + c * ax.xM - s * yb;
-    const wy = model.poseY + s * ax.xM + c * yb;
-    h[i] = model.field.height(wx, wy);
+    out[i] = model.field.height(model.poseX + c * ax.xM - s * yb, model.poseY + s * ax.xM + c * yb);
   }
+  return out;
+}
+
+/** Ride-height guess: the body laid on a plane fitted to the ground under the four wheels. */
+export function initialGuess(model: VehicleModel, x: Float64Array): void {
+  x.fill(0);
+  const h = groundUnderWheels(model, _ground);
   const L = model.wheelbaseM;
   const T = 0.5 * (model.axles[0].trackM + model.axles[1].trackM);
   const mean = 0.25 * (h[0] + h[1] + h[2] + h[3]);
@@ -155,16 +160,42 @@ export function initialGuess(model: VehicleModel, x: Float64Array): void {
   x[Q_VY] = -g[1] / gn;
 }
 
-/** Jacobian of the scaled residual by forward differences over the tyres' linearisation at x. */
-function jacobian(model: VehicleModel, x: Float64Array, J: Float64Array): void {
-  model.residual(x, false, _r0);
+/**
+ * Jacobian of the scaled residual by forward differences at x: over the tyres' linearisation
+ * (full = false: cheap, no ray casts) or over the full equations (full = true: ten ray casts).
+ * `r` holds the full residual at x (the model's buffers hold that evaluation) and is left as it is;
+ * so are the buffers.
+ */
+function jacobian(model: VehicleModel, x: Float64Array, r: Float64Array, full: boolean, J: Float64Array): void {
+  const step = full ? FULL_FD_STEP : FD_STEP;
+  // The base: the full residual itself, or the linearised one at x (equal to it up to rounding).
+  if (full) _r0.set(r);
+  else model.residual(x, false, _r0);
   for (let k = 0; k < N; k++) {
     const keep = x[k];
-    x[k] = keep + FD_STEP;
-    model.residual(x, false, _rk);
+    x[k] = keep + step;
+    model.residual(x, full, _rk);
     x[k] = keep;
-    for (let i = 0; i < N; i++) J[i * N + k] = (_rk[i] - _r0[i]) / FD_STEP;
+    for (let i = 0; i < N; i++) J[i * N + k] = (_rk[i] - _r0[i]) / step;
   }
+  // The full differences re-cast the tyres at the perturbed states: cast them at x again.
+  if (full) model.residual(x, true, _rk);
+}
+
+/** Height of tyre i's lowest point above the ground straight below its centre (m); negative when pressed in. */
+function tyreGap(model: VehicleModel, i: number): number {
+  const w = model.wheelCentre;
+  return w[3 * i + 2] - model.axles[i >> 1].radiusM - model.field.height(w[3 * i], w[3 * i + 1]);
+}
+
+/** The largest fraction (≤ scale) of the step dx that keeps every unknown within its cap. */
+function stepCap(dx: Float64Array, scale: number): number {
+  let s = scale;
+  for (let k = 0; k < N; k++) {
+    const a = Math.abs(dx[k]);
+    if (a * s > MAX_STEP[k]) s = MAX_STEP[k] / a;
+  }
+  return s;
 }
 
 const _gap = new Float64Array(4);
@@ -179,48 +210,30 @@ const _travel = new Float64Array(4);
 function contactStepLimit(model: VehicleModel, x: Float64Array, scale: number): number {
   for (let i = 0; i < 4; i++) {
     _travel[i] = model.travel[i];
-    if (model.contacts[i].loadedSlices > 0) {
-      _gap[i] = NaN;
-      continue;
-    }
-    const w = model.wheelCentre;
-    _gap[i] = w[3 * i + 2] - model.axles[i >> 1].radiusM - model.field.height(w[3 * i], w[3 * i + 1]);
+    _gap[i] = model.contacts[i].loadedSlices > 0 ? NaN : tyreGap(model, i);
   }
   for (let k = 0; k < N; k++) _xt[k] = x[k] + scale * _dx[k];
   model.kinematics(_xt);
   let s = scale;
-  const limit = (before: number, after: number, edge: number, allowance: number): void => {
-    // Before: on the free side of `edge` (before > edge); after: past it by more than the allowance.
-    if (before > edge && after < edge - allowance) {
-      const f = (before - edge + allowance) / (before - after);
-      if (f * scale < s) s = Math.max(f * scale, MIN_CONTACT_STEP * scale);
-    }
-  };
   for (let i = 0; i < 4; i++) {
     const ax = model.axles[i >> 1];
-    if (!Number.isNaN(_gap[i])) {
-      const w = model.wheelCentre;
-      const after = w[3 * i + 2] - ax.radiusM - model.field.height(w[3 * i], w[3 * i + 1]);
-      limit(_gap[i], after, 0, CONTACT_OVERSHOOT_M);
-    }
-    limit(_travel[i], model.travel[i], -ax.droopM, CONTACT_OVERSHOOT_M);
-    limit(-_travel[i], -model.travel[i], -ax.bumpM, CONTACT_OVERSHOOT_M);
+    if (!Number.isNaN(_gap[i])) s = limitAtEdge(_gap[i], tyreGap(model, i), 0, scale, s);
+    s = limitAtEdge(_travel[i], model.travel[i], -ax.droopM, scale, s);
+    s = limitAtEdge(-_travel[i], -model.travel[i], -ax.bumpM, scale, s);
   }
   model.kinematics(x);
   return s;
 }
 
-/** Jacobian by forward differences of the full equations (ray casts); leaves the model evaluated at x. */
-function fullJacobianFd(model: VehicleModel, x: Float64Array, J: Float64Array): void {
-  model.residual(x, true, _r0);
-  for (let k = 0; k < N; k++) {
-    const keep = x[k];
-    x[k] = keep + FULL_FD_STEP;
-    model.residual(x, true, _rk);
-    x[k] = keep;
-    for (let i = 0; i < N; i++) J[i * N + k] = (_rk[i] - _r0[i]) / FULL_FD_STEP;
-  }
-  model.residual(x, true, _r0);
+/**
+ * One quantity going from `before` (on the free side of `edge`) to `after` under the step of
+ * length `scale`: if that takes it more than CONTACT_OVERSHOOT_M past the edge, the step fraction
+ * that stops it there (never below MIN_CONTACT_STEP of the step); else `s` unchanged.
+ */
+function limitAtEdge(before: number, after: number, edge: number, scale: number, s: number): number {
+  if (!(before > edge && after < edge - CONTACT_OVERSHOOT_M)) return s;
+  const f = (before - edge + CONTACT_OVERSHOOT_M) / (before - after);
+  return f * scale < s ? Math.max(f * scale, MIN_CONTACT_STEP * scale) : s;
 }
 
 /** Damped least squares step: (JᵀJ + λ diag(JᵀJ) + λ·ε I) dx = −Jᵀ r. */
@@ -254,12 +267,7 @@ function totalLoadedSlices(model: VehicleModel): number {
  */
 function lowestGap(model: VehicleModel): number {
   let gap = Infinity;
-  for (let i = 0; i < 4; i++) {
-    const ax = model.axles[i >> 1];
-    const w = model.wheelCentre;
-    const gz = w[3 * i + 2] - ax.radiusM - model.field.height(w[3 * i], w[3 * i + 1]);
-    if (gz < gap) gap = gz;
-  }
+  for (let i = 0; i < 4; i++) gap = Math.min(gap, tyreGap(model, i));
   return gap;
 }
 
@@ -371,8 +379,7 @@ function newton(model: VehicleModel, x: Float64Array, tol: number, maxIt: number
       n2 = norm2(_r);
       continue;
     }
-    if (fullJacobian) fullJacobianFd(model, x, _J);
-    else jacobian(model, x, _J);
+    jacobian(model, x, _r, fullJacobian, _J);
     _A.set(_J);
     for (let i = 0; i < N; i++) _rhs[i] = -_r[i];
     let ok = solveLinearInPlace(N, _A, _rhs, _dx);
@@ -382,12 +389,7 @@ function newton(model: VehicleModel, x: Float64Array, tol: number, maxIt: number
       break;
     }
     // Step limit: scale the whole step so no unknown moves more than its cap.
-    let scale = 1;
-    for (let k = 0; k < N; k++) {
-      const a = Math.abs(_dx[k]);
-      if (a * scale > MAX_STEP[k]) scale = MAX_STEP[k] / a;
-    }
-    scale = contactStepLimit(model, x, scale);
+    const scale = contactStepLimit(model, x, stepCap(_dx, 1));
     let alpha = scale;
     let accepted = false;
     const m0 = maxAbs(_r);
@@ -428,11 +430,7 @@ function newton(model: VehicleModel, x: Float64Array, tol: number, maxIt: number
       let lambda = 1e-2;
       for (let tries = 0; tries < 3 && !accepted; tries++, lambda *= 30) {
         if (!dampedStep(_J, _r, lambda, _dx)) continue;
-        let s = 1;
-        for (let k = 0; k < N; k++) {
-          const a = Math.abs(_dx[k]);
-          if (a * s > MAX_STEP[k]) s = MAX_STEP[k] / a;
-        }
+        const s = stepCap(_dx, 1);
         for (let k = 0; k < N; k++) _xt[k] = x[k] + s * _dx[k];
         model.residual(_xt, true, _rt);
         const nt = norm2(_rt);
@@ -531,7 +529,6 @@ function collect(
     nx /= nl; ny /= nl; nz /= nl;
     const fn = fx * nx + fy * ny + fz * nz;
     const tx = fx - fn * nx, ty = fy - fn * ny, tz = fz - fn * nz;
-    const wsum = load;
     totalLoad += load;
     const lifted = model.contacts[i].loadedSlices === 0 || !(load > 0);
     const c = model.wheelCentre;
@@ -547,14 +544,14 @@ function collect(
       loadShare: lifted ? 0 : load / model.staticLoadN[i],
       staticLoadN: model.staticLoadN[i],
       lifted,
-      contactPointWorld: lifted ? [centre[0], centre[1], centre[2] - ax.radiusM] : [px / wsum, py / wsum, pz / wsum],
+      contactPointWorld: lifted ? [centre[0], centre[1], centre[2] - ax.radiusM] : [px / load, py / load, pz / load],
       contactNormalWorld: lifted ? [0, 0, 1] : [nx, ny, nz],
       centreWorld: centre,
       axisWorld: axis,
       travelM: t,
       // No travel that way (a corner with zero droop, or a value too small to divide by): ±1 once it moves.
       travelFraction: avail > MIN_TRAVEL_M ? t / avail : Math.abs(t) <= MIN_TRAVEL_M ? 0 : Math.sign(t),
-      tyreDeflectionM: lifted ? 0 : dsum / wsum,
+      tyreDeflectionM: lifted ? 0 : dsum / load,
       tangentialN: lifted ? 0 : tangential,
       frictionDemand: lifted ? 0 : tangential / load,
     });
@@ -612,16 +609,8 @@ function collect(
   const yUp = R[1] * up[0] + R[4] * up[1] + R[7] * up[2];
   const zUp = R[2] * up[0] + R[5] * up[1] + R[8] * up[2];
   const xUp = R[0] * up[0] + R[3] * up[1] + R[6] * up[2];
-  let groundMean = 0;
-  {
-    const c = Math.cos(model.headingRad);
-    const s = Math.sin(model.headingRad);
-    for (let i = 0; i < 4; i++) {
-      const ax = model.axles[i >> 1];
-      const yb = (i & 1) === 0 ? ax.trackM / 2 : -ax.trackM / 2;
-      groundMean += 0.25 * model.field.height(model.poseX + c * ax.xM - s * yb, model.poseY + s * ax.xM + c * yb);
-    }
-  }
+  const gw = groundUnderWheels(model, _ground);
+  const groundMean = 0.25 * (gw[0] + gw[1] + gw[2] + gw[3]);
 
   let resF = 0;
   let resM = 0;

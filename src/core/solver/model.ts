@@ -40,10 +40,10 @@ export const Q_ROLL = 1;
 export const Q_PITCH = 2;
 export const Q_SUSP = 3;
 export const Q_VX = 7;
-/** First residual row of the suspension equations (rows 0–5 are the whole-vehicle balance). */
-export const R_SUSP = 6;
 export const Q_VY = 8;
 export const Q_WZ = 9;
+/** First residual row of the suspension equations (rows 0–5 are the whole-vehicle balance). */
+export const R_SUSP = 6;
 
 /** Bump stop: rate relative to the wheel rate, and the overshoot over which it doubles (progressive). */
 const BUMP_STOP_RATE_FACTOR = 20;

@@ -80,6 +80,36 @@ export function makeTyreLayout(opts: TyreModelOptions = DEFAULT_TYRE_MODEL): Tyr
  * the integral of max(0, δ(ψ)) times its hat function over its two neighbouring intervals.
  */
 
+/**
+ * An interval compressed at one end only: P > 0 at the `near` spring, Q ≤ 0 at the `far` one, so
+ * the compression falls to zero at t0 = P / (P − Q) of the way. Writes both weights and their
+ * derivatives by P and Q into the given slots of out.
+ */
+function partialInterval(
+  P: number,
+  Q: number,
+  out: Float64Array,
+  near: number,
+  far: number,
+  nearByP: number,
+  nearByQ: number,
+  farByP: number,
+  farByQ: number,
+): void {
+  const D = P - Q;
+  const t0 = P / D;
+  const tP = -Q / (D * D);
+  const tQ = P / (D * D);
+  out[near] = P * (t0 / 2 - (t0 * t0) / 6);
+  out[far] = (P * t0 * t0) / 6;
+  const dNear = P * (0.5 - t0 / 3);
+  const dFar = (P * t0) / 3;
+  out[nearByP] = t0 / 2 - (t0 * t0) / 6 + dNear * tP;
+  out[nearByQ] = dNear * tQ;
+  out[farByP] = (t0 * t0) / 6 + dFar * tP;
+  out[farByQ] = dFar * tQ;
+}
+
 /** Adds segment [k, k+1] with compressions A, B to the spring weights (per unit interval). */
 function segmentWeights(A: number, B: number, out: Float64Array): void {
   // out: [c_k, c_k1, dck/dA, dck/dB, dck1/dA, dck1/dB]
@@ -91,32 +121,10 @@ function segmentWeights(A: number, B: number, out: Float64Array): void {
     out[4] = 1 / 6;
     out[5] = 1 / 3;
   } else if (A > 0) {
-    // Crossing at t0 = A / (A − B) from the k end.
-    const D = A - B;
-    const t0 = A / D;
-    const tA = -B / (D * D);
-    const tB = A / (D * D);
-    out[0] = A * (t0 / 2 - (t0 * t0) / 6);
-    out[1] = (A * t0 * t0) / 6;
-    const dk = A * (0.5 - t0 / 3);
-    const dk1 = (A * t0) / 3;
-    out[2] = t0 / 2 - (t0 * t0) / 6 + dk * tA;
-    out[3] = dk * tB;
-    out[4] = (t0 * t0) / 6 + dk1 * tA;
-    out[5] = dk1 * tB;
+    partialInterval(A, B, out, 0, 1, 2, 3, 4, 5);
   } else if (B > 0) {
-    const D = B - A;
-    const s0 = B / D;
-    const sB = -A / (D * D);
-    const sA = B / (D * D);
-    out[1] = B * (s0 / 2 - (s0 * s0) / 6);
-    out[0] = (B * s0 * s0) / 6;
-    const dk1 = B * (0.5 - s0 / 3);
-    const dk = (B * s0) / 3;
-    out[5] = s0 / 2 - (s0 * s0) / 6 + dk1 * sB;
-    out[4] = dk1 * sA;
-    out[3] = (s0 * s0) / 6 + dk * sB;
-    out[2] = dk * sA;
+    // The mirror image: the compressed end is k + 1.
+    partialInterval(B, A, out, 1, 0, 5, 4, 3, 2);
   } else {
     out[0] = out[1] = out[2] = out[3] = out[4] = out[5] = 0;
   }
