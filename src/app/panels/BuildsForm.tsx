@@ -1,4 +1,5 @@
-import { useEffect, useState } from 'react';
+import { useState } from 'react';
+import { useEditedText } from './useEditedText';
 import {
   M_PER_IN,
   applyBuild,
@@ -54,12 +55,8 @@ interface BuildFieldProps {
 /** A number of a build in its display unit; the typed text is kept while the field has focus (no rounding written back). */
 function BuildField({ label, testId, valueSI, display, optional, placeholder, disabled, onValue }: BuildFieldProps) {
   const shown = shownText(display, valueSI);
-  const [text, setText] = useState(shown);
-  const [focused, setFocused] = useState(false);
   const [message, setMessage] = useState<string | null>(null);
-  useEffect(() => {
-    if (!focused) setText(shown);
-  }, [shown, focused]);
+  const { text, setText, onFocus, onBlur } = useEditedText(shown, () => setMessage(null));
   return (
     <label className={message ? 'field invalid' : 'field'}>
       <span className="field-label">{label}</span>
@@ -73,12 +70,8 @@ function BuildField({ label, testId, valueSI, display, optional, placeholder, di
           disabled={disabled}
           data-testid={testId}
           aria-invalid={message ? true : undefined}
-          onFocus={() => setFocused(true)}
-          onBlur={() => {
-            setFocused(false);
-            setMessage(null);
-            setText(shown);
-          }}
+          onFocus={onFocus}
+          onBlur={onBlur}
           onChange={(e) => {
             const t = e.target.value;
             setText(t);
@@ -106,12 +99,8 @@ function BuildField({ label, testId, valueSI, display, optional, placeholder, di
 }
 
 function TextField({ label, testId, value, onValue }: { label: string; testId: string; value: string; onValue: (v: string) => string | null }) {
-  const [text, setText] = useState(value);
-  const [focused, setFocused] = useState(false);
   const [message, setMessage] = useState<string | null>(null);
-  useEffect(() => {
-    if (!focused) setText(value);
-  }, [value, focused]);
+  const { text, setText, onFocus, onBlur } = useEditedText(value, () => setMessage(null));
   return (
     <label className={message ? 'field invalid' : 'field'}>
       <span className="field-label">{label}</span>
@@ -120,12 +109,8 @@ function TextField({ label, testId, value, onValue }: { label: string; testId: s
         value={text}
         data-testid={testId}
         aria-invalid={message ? true : undefined}
-        onFocus={() => setFocused(true)}
-        onBlur={() => {
-          setFocused(false);
-          setMessage(null);
-          setText(value);
-        }}
+        onFocus={onFocus}
+        onBlur={onBlur}
         onChange={(e) => {
           setText(e.target.value);
           setMessage(onValue(e.target.value));

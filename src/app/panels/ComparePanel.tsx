@@ -1,9 +1,10 @@
-import { useEffect, useRef, useState } from 'react';
+import { useState } from 'react';
 import { MAX_BUILDS, type BuildRow, type MetricName, type Scenario } from '../../core';
 import buildsDemo from '../../../assets/scenarios/side-hill-builds.json';
-import { runJob, type Job } from '../../worker/client';
+import { runJob } from '../../worker/client';
 import type { ReplyOf } from '../../worker/messages';
 import { DEG_PER_RAD, distanceUnit, distanceValue, fromSILength, lengthUnit } from '../format';
+import { useWorkerJob } from './useWorkerJob';
 import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../storeContext';
 import { BuildsForm } from './BuildsForm';
 
@@ -53,27 +54,14 @@ export function ComparePanel() {
   const units = usePlumb((s) => s.units);
   const shownLabel = usePlumb((s) => (s.shown?.kind === 'build' ? s.shown.label : null));
   const ghostLabel = usePlumb((s) => s.ghost?.label ?? null);
-  const [progress, setProgress] = useState<{ done: number; total: number } | null>(null);
   const [done, setDone] = useState<Done | null>(null);
-  const [message, setMessage] = useState<string | null>(null);
-  const job = useRef<Job<ReplyOf<'compare'>> | null>(null);
-  useEffect(() => () => job.current?.cancel(), []);
+  const { progress, message, run, cancel } = useWorkerJob();
   const builds = scenario.builds ?? [];
   const stale = done !== null && (done.for.vehicle !== scenario.vehicle || done.for.builds !== scenario.builds || done.for.terrain !== scenario.terrain || done.for.path !== scenario.path);
 
   const start = () => {
     const s = store.getState().scenario;
-    setMessage(null);
-    setProgress({ done: 0, total: 1 });
-    const j = runJob({ type: 'compare', scenario: s }, (d, t) => setProgress({ done: d, total: t }));
-    job.current = j;
-    j.done
-      .then((r) => setDone({ ...r, for: s }))
-      .catch((e: Error) => setMessage(e.message === 'cancelled' ? 'Cancelled.' : `Failed: ${e.message}`))
-      .finally(() => {
-        if (job.current === j) job.current = null;
-        setProgress(null);
-      });
+    run((onProgress) => runJob({ type: 'compare', scenario: s }, onProgress), (r) => setDone({ ...r, for: s }));
   };
 
   const rows = done?.rows ?? [];
@@ -132,7 +120,7 @@ export function ComparePanel() {
                 {done ? 'Compare again' : 'Compare'}
               </button>
               {progress ? (
-                <button type="button" data-testid="compare-cancel" onClick={() => job.current?.cancel()}>
+                <button type="button" data-testid="compare-cancel" onClick={cancel}>
                   Cancel
                 </button>
               ) : null}

@@ -1,4 +1,5 @@
 import type { MouseEvent } from 'react';
+import { fmt, niceStep } from './chartScale';
 
 export interface DistanceSeries {
   readonly label: string;
@@ -162,15 +163,4 @@ export function DistanceChart({
         : null}
     </svg>
   );
-}
-
-function niceStep(raw: number): number {
-  if (!(raw > 0)) return 1;
-  const p = Math.pow(10, Math.floor(Math.log10(raw)));
-  const m = raw / p;
-  return (m <= 1 ? 1 : m <= 2 ? 2 : m <= 5 ? 5 : 10) * p;
-}
-
-function fmt(v: number): string {
-  return Number(v.toPrecision(4)).toString();
 }

@@ -1,7 +1,8 @@
-import { useEffect, useRef, useState } from 'react';
+import { useState } from 'react';
 import type { LineSummary, Scenario, SweepRange } from '../../core';
-import { runLines, type Job, type LineSweepReply } from '../../worker/client';
+import { runLines, type LineSweepReply } from '../../worker/client';
 import { DEG_PER_RAD, distanceText, fromSILength, lengthUnit } from '../format';
+import { useWorkerJob } from './useWorkerJob';
 import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../storeContext';
 import { NumberField } from './NumberField';
 
@@ -42,11 +43,8 @@ export function LinesPanel() {
   const chosen = usePlumb((s) => s.overlayPath);
   const [offsets, setOffsets] = useState<SweepRange>({ from: -1, to: 1, step: 0.5 });
   const [headings, setHeadings] = useState<SweepRange>({ from: -5 / DEG_PER_RAD, to: 5 / DEG_PER_RAD, step: 5 / DEG_PER_RAD });
-  const [progress, setProgress] = useState<{ done: number; total: number } | null>(null);
   const [done, setDone] = useState<Done | null>(null);
-  const [message, setMessage] = useState<string | null>(null);
-  const job = useRef<Job<LineSweepReply> | null>(null);
-  useEffect(() => () => job.current?.cancel(), []);
+  const { progress, message, run, cancel } = useWorkerJob();
   if (!scenario.path) {
     return (
       <section className="panel" aria-labelledby="lines-h">
@@ -59,20 +57,14 @@ export function LinesPanel() {
   const stale = done !== null && (done.for.vehicle !== scenario.vehicle || done.for.terrain !== scenario.terrain || done.for.path !== scenario.path);
   const start = () => {
     const s = store.getState().scenario;
-    setMessage(null);
-    setProgress({ done: 0, total: count });
-    const j = runLines(s, offsets, headings, (d, t) => setProgress({ done: d, total: t }));
-    job.current = j;
-    j.done
-      .then((r) => {
+    run(
+      (onProgress) => runLines(s, offsets, headings, onProgress),
+      (r) => {
         setDone({ ...r, for: s });
         if (r.ranked.length > 0) store.getState().setOverlayPath(r.ranked[0].path);
-      })
-      .catch((e: Error) => setMessage(e.message === 'cancelled' ? 'Cancelled.' : `Failed: ${e.message}`))
-      .finally(() => {
-        if (job.current === j) job.current = null;
-        setProgress(null);
-      });
+      },
+      count,
+    );
   };
   const ranked = done?.ranked ?? [];
   const list: { line: LineSummary; rank: number }[] = ranked.map((line, i) => ({ line, rank: i + 1 }));
@@ -98,7 +90,7 @@ export function LinesPanel() {
             Try {count} line{count === 1 ? '' : 's'}
           </button>
           {progress ? (
-            <button type="button" data-testid="lines-cancel" onClick={() => job.current?.cancel()}>
+            <button type="button" data-testid="lines-cancel" onClick={cancel}>
               Cancel
             </button>
           ) : null}

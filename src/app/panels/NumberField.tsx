@@ -1,4 +1,5 @@
-import { useEffect, useState } from 'react';
+import { useState } from 'react';
+import { useEditedText } from './useEditedText';
 import type { QuantityKind, UnitSystem } from '../../core';
 import { fieldUnit, fieldValue } from '../format';
 import { toSI } from '../../core';
@@ -25,12 +26,8 @@ export interface NumberFieldProps {
  */
 export function NumberField({ label, valueSI, kind, units, onChange, testId, step, error = null, check }: NumberFieldProps) {
   const shown = fieldValue(kind, valueSI, units);
-  const [text, setText] = useState(shown);
-  const [focused, setFocused] = useState(false);
   const [local, setLocal] = useState<string | null>(null);
-  useEffect(() => {
-    if (!focused) setText(shown);
-  }, [shown, focused]);
+  const { text, setText, onFocus, onBlur } = useEditedText(shown, () => setLocal(null));
   const unit = fieldUnit(kind, units);
   const message = local ?? error;
   return (
@@ -44,12 +41,8 @@ export function NumberField({ label, valueSI, kind, units, onChange, testId, ste
           value={text}
           data-testid={testId}
           aria-invalid={message ? true : undefined}
-          onFocus={() => setFocused(true)}
-          onBlur={() => {
-            setFocused(false);
-            setLocal(null);
-            setText(shown);
-          }}
+          onFocus={onFocus}
+          onBlur={onBlur}
           onChange={(e) => {
             const t = e.target.value;
             setText(t);

@@ -1,10 +1,11 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { WHEEL_NAMES, type PassResult, type Scenario, type SolveResult } from '../../core';
-import { runJob, type Job } from '../../worker/client';
+import { runJob } from '../../worker/client';
 import type { ReplyOf } from '../../worker/messages';
 import { WHEEL_COLOURS, WHEEL_DASHES } from '../../view/colormap';
 import { DEG_PER_RAD, distanceText, distanceUnit, distanceValue, forceUnit, forceValue, fromSILength, lengthUnit } from '../format';
 import { eventWords, passHeadline } from '../passWords';
+import { useWorkerJob } from './useWorkerJob';
 import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../storeContext';
 import { DistanceChart, type DistanceMark } from './DistanceChart';
 
@@ -24,14 +25,11 @@ export function PassPanel() {
   // Not re-rendered while the vehicle is dragged: nothing here depends on the pose.
   const scenario = useScenarioPoseAside();
   const units = usePlumb((s) => s.units);
-  const [progress, setProgress] = useState<{ done: number; total: number } | null>(null);
   const [done, setDone] = useState<Done | null>(null);
-  const [message, setMessage] = useState<string | null>(null);
   const [station, setStation] = useState(0);
   const [playing, setPlaying] = useState(false);
-  const job = useRef<Job<ReplyOf<'pass'>> | null>(null);
+  const { progress, message, run, cancel } = useWorkerJob();
   const stationRef = useRef(0);
-  useEffect(() => () => job.current?.cancel(), []);
   const stale =
     done !== null &&
     (done.for.vehicle !== scenario.vehicle || done.for.terrain !== scenario.terrain || done.for.path !== scenario.path || done.for.tilt !== scenario.tilt || done.for.friction !== scenario.friction);
@@ -51,22 +49,15 @@ export function PassPanel() {
 
   const start = () => {
     const s = store.getState().scenario;
-    setMessage(null);
     setPlaying(false);
-    setProgress({ done: 0, total: 1 });
-    const j = runJob({ type: 'pass', scenario: s }, (d, t) => setProgress({ done: d, total: t }));
-    job.current = j;
-    j.done
-      .then((r) => {
+    run(
+      (onProgress) => runJob({ type: 'pass', scenario: s }, onProgress),
+      (r) => {
         const d = { ...r, for: s };
         setDone(d);
         show(d, 0);
-      })
-      .catch((e: Error) => setMessage(e.message === 'cancelled' ? 'Cancelled.' : `Failed: ${e.message}`))
-      .finally(() => {
-        if (job.current === j) job.current = null;
-        setProgress(null);
-      });
+      },
+    );
   };
 
   // Play: step through the stations; stops at the end.
@@ -110,6 +101,10 @@ export function PassPanel() {
     setPlaying(false);
     show(done, Math.min(done.result.stations.length - 1, done.result.events[i].startStation));
   };
+  // What the four charts share: the distance axis, the events, the current station, the clicks.
+  const chartCommon = charts
+    ? { distances: charts.distances, xUnit: distanceUnit(units), marks: charts.marks, current: cur, onPick: jumpTo, onMark }
+    : null;
   return (
     <section className="panel" aria-labelledby="pass-h">
       <details open>
@@ -124,7 +119,7 @@ export function PassPanel() {
             {done ? 'Run the pass again' : 'Run the pass'}
           </button>
           {progress ? (
-            <button type="button" data-testid="pass-cancel" onClick={() => job.current?.cancel()}>
+            <button type="button" data-testid="pass-cancel" onClick={cancel}>
               Cancel
             </button>
           ) : null}
@@ -176,50 +171,30 @@ export function PassPanel() {
               </p>
             ) : null}
             <DistanceChart
+              {...chartCommon!}
               testId="pass-chart-loads"
-              distances={charts.distances}
               series={charts.loads}
               yLabel={`Normal load per tyre (${forceUnit(units)})`}
-              xUnit={distanceUnit(units)}
-              marks={charts.marks}
-              current={cur}
-              onPick={jumpTo}
-              onMark={onMark}
             />
             <DistanceChart
+              {...chartCommon!}
               testId="pass-chart-travel"
-              distances={charts.distances}
               series={charts.travel}
               yLabel="Travel used (%; + bump, − droop)"
-              xUnit={distanceUnit(units)}
-              marks={charts.marks}
-              current={cur}
               yRange={[-100, 100]}
-              onPick={jumpTo}
-              onMark={onMark}
             />
             <DistanceChart
+              {...chartCommon!}
               testId="pass-chart-margins"
-              distances={charts.distances}
               series={charts.forceAngle}
               yLabel="Force-angle margin (°)"
-              xUnit={distanceUnit(units)}
-              marks={charts.marks}
-              current={cur}
-              onPick={jumpTo}
-              onMark={onMark}
               height={120}
             />
             <DistanceChart
+              {...chartCommon!}
               testId="pass-chart-energy"
-              distances={charts.distances}
               series={charts.energy}
               yLabel={`Energy margin (${lengthUnit(units)})`}
-              xUnit={distanceUnit(units)}
-              marks={charts.marks}
-              current={cur}
-              onPick={jumpTo}
-              onMark={onMark}
               height={120}
             />
             <h3 className="sub">Events (click to go there)</h3>

@@ -1,7 +1,8 @@
-import { useEffect, useRef, useState } from 'react';
+import { useState } from 'react';
 import type { RoseResult } from '../../core';
-import { runRose, type Job } from '../../worker/client';
+import { runRose } from '../../worker/client';
 import { DEG_PER_RAD, angleText, downhillWords } from '../format';
+import { useWorkerJob } from './useWorkerJob';
 import { usePlumb, usePlumbStore } from '../storeContext';
 
 interface Done {
@@ -61,25 +62,12 @@ function RosePlot({ rose, size = 300 }: { rose: RoseResult; size?: number }) {
 export function RosePanel() {
   const store = usePlumbStore();
   const scenario = usePlumb((s) => s.scenario);
-  const [progress, setProgress] = useState<{ done: number; total: number } | null>(null);
   const [done, setDone] = useState<(Done & { for: typeof scenario }) | null>(null);
-  const [message, setMessage] = useState<string | null>(null);
-  const job = useRef<Job<Done> | null>(null);
-  useEffect(() => () => job.current?.cancel(), []);
+  const { progress, message, run, cancel } = useWorkerJob();
   const stale = done && (done.for.vehicle !== scenario.vehicle || done.for.terrain !== scenario.terrain || done.for.pose !== scenario.pose);
   const start = () => {
     const s = store.getState().scenario;
-    setMessage(null);
-    setProgress({ done: 0, total: 1 });
-    const j = runRose(s, 5, (d, t) => setProgress({ done: d, total: t }));
-    job.current = j;
-    j.done
-      .then((r) => setDone({ ...r, for: s }))
-      .catch((e: Error) => setMessage(e.message === 'cancelled' ? 'Cancelled.' : `Failed: ${e.message}`))
-      .finally(() => {
-        if (job.current === j) job.current = null;
-        setProgress(null);
-      });
+    run((onProgress) => runRose(s, 5, onProgress), (r) => setDone({ ...r, for: s }));
   };
   return (
     <section className="panel" aria-labelledby="rose-h">
@@ -92,7 +80,7 @@ export function RosePanel() {
             Sweep every 5°
           </button>
           {progress ? (
-            <button type="button" data-testid="rose-cancel" onClick={() => job.current?.cancel()}>
+            <button type="button" data-testid="rose-cancel" onClick={cancel}>
               Cancel
             </button>
           ) : null}

@@ -1,4 +1,5 @@
 import { WHEEL_NAMES, type TiltSweepResult, type UnitSystem } from '../../core';
+import { fmt, niceStep } from './chartScale';
 import { DEG_PER_RAD, forceUnit, forceValue } from '../format';
 import { WHEEL_COLOURS, WHEEL_DASHES } from '../../view/colormap';
 
@@ -102,15 +103,4 @@ export function SweepChart({ sweep, units, currentRad, width = 360, height = 210
       ))}
     </svg>
   );
-}
-
-function niceStep(raw: number): number {
-  if (!(raw > 0)) return 1;
-  const p = Math.pow(10, Math.floor(Math.log10(raw)));
-  const m = raw / p;
-  return (m <= 1 ? 1 : m <= 2 ? 2 : m <= 5 ? 5 : 10) * p;
-}
-
-function fmt(v: number): string {
-  return Number(v.toPrecision(4)).toString();
 }
