@@ -229,8 +229,18 @@ export interface SolveOptions {
   readonly maxIterations?: number;
   /** Bound on the scaled residual (forces / weight, moments / (weight · wheelbase)). @default 1e-7 (ten times inside the 1e-6·W bound the results promise) */
   readonly tolerance?: number;
-  /** Start from this state (from a previous result's `state`) instead of the ride-height guess. */
+  /**
+   * A previous result's `state`: a speed-up only. The answer stays the scenario's own (the stable
+   * equilibrium from the reference start); a warm landing that cannot be shown to be it is solved
+   * again from the reference start.
+   */
   readonly warmStart?: Float64Array | null;
+  /**
+   * The caller follows a path of its own from the warm start (a tilt sweep raising the table step by
+   * step): accept the root the warm start leads to, checked for stability, without the reference
+   * test. @default false
+   */
+  readonly followBranch?: boolean;
   /**
    * Only the fast iteration: no fallback to the full-equation Jacobian, no eased cold start. For
    * searches that bracket an event from a close warm start, where a miss is cheap to take.
@@ -305,6 +315,13 @@ export interface BodyResult {
 
 export interface SolveResult {
   readonly status: SolveStatus;
+  /** The vehicle stands here: a converged, stable equilibrium (status 'converged'). Nothing else is ever shown as standing. */
+  readonly standing: boolean;
+  /**
+   * Smallest eigenvalue of the tangent stiffness of the configuration (per W·L, dimensionless), where
+   * the forces balance (converged or unstable); null otherwise. Positive: stable; it falls to zero at a fold.
+   */
+  readonly stiffnessMinEigen: number | null;
   /** Why it ended as it did, in words. */
   readonly reason: string;
   readonly iterations: number;

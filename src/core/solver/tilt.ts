@@ -64,6 +64,7 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
       tilt: { angleRad, downhillRad },
       friction,
       warmStart: warm,
+      followBranch: true,
       maxIterations: warm ? SWEEP_MAX_ITERATIONS : undefined,
       quick,
     });
