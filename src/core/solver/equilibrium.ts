@@ -1,9 +1,10 @@
 /**
  * The pose solve: the one answer of a scenario. The answer is defined as the stable equilibrium
- * reached from the reference start: the vehicle lowered at ride height onto the ground under its
- * wheels (initialGuess) and, when the direct Newton iteration from there does not reach a stable
- * equilibrium, eased in: untilted on softened tyres first, then the tilt and the tyre rate applied
- * progressively. A warm start (a previous state) is only a speed-up: its landing is accepted when
+ * reached from the reference start: the vehicle set down at ride height on a plane fitted to the
+ * ground under its wheels, with gravity along that plane's normal, then gravity turned step by step
+ * to the real one (the ground's slope and the tilt applied progressively, as a tilt table is raised);
+ * when that does not land on a stable equilibrium, the same with the tyres eased in from soft, and
+ * where Newton stalls, the set-down pose nudged up and down by a few centimetres (solveReference). A warm start (a previous state) is only a speed-up: its landing is accepted when
  * it is a stable equilibrium with every wheel on the ground (one contact set, where a converged
  * stable root is the reference one); anything else is solved again from the reference start.
  * Every root is checked for stability (stability.ts); an unstable one is reported as 'unstable'.
@@ -12,8 +13,8 @@
  */
 import type { Pose, SolveOptions, SolveResult, SolveStatus, Terrain, Vehicle } from '../model/types';
 import { TerrainField } from '../terrain/field';
-import { GRAVITY_MPS2, type ModelOptions, STATE_SIZE, VehicleModel, rigidStaticLoads } from './model';
-import { type NewtonOutcome, initialGuess, newton, residualOut } from './newton';
+import { GRAVITY_MPS2, type ModelOptions, Q_VX, Q_VY, Q_Z, STATE_SIZE, VehicleModel, rigidStaticLoads } from './model';
+import { type NewtonOutcome, gripOnPlane, guessNormal, initialGuess, newton, residualOut } from './newton';
 import { buildResult } from './result';
 import { createStabilityScratch, stabilityOf } from './stability';
 
@@ -78,45 +79,115 @@ function allWheelsLoaded(model: VehicleModel): boolean {
   return true;
 }
 
+/** Below this angle between gravity and the fitted ground's normal (rad) the reference start goes straight to the pose. */
+const DIRECT_MAX_RAD = (2 * Math.PI) / 180;
+/** Largest gravity turn per continuation step (rad). */
+const CONTINUATION_STEP_RAD = (5 * Math.PI) / 180;
+/** Height offsets of the set-down pose tried, in order, when every path from it stalls (m). */
+const NUDGES_M = [-0.02, 0.02, -0.05, 0.05];
+const _gTrue = new Float64Array(3);
+const _gripNow = new Float64Array(2);
+const _gripLast = new Float64Array(2);
+const _n0 = new Float64Array(3);
+
 /**
- * The reference start (see the module comment) into x. On return the model's buffers hold x's full
- * evaluation and residualOut its residual. The model's tilt must be set to `tilt`.
+ * The continuation of the reference start: from the ride-height guess with gravity along the fitted
+ * ground's normal (the vehicle set down square on its ground) to the real gravity, turned in
+ * `steps` equal steps (spherical interpolation), each warm-started from the last; `soften` also
+ * eases the tyres in from soft. x starts at initialGuess. Leaves the model's gravity at the real one.
  */
-function solveReference(model: VehicleModel, x: Float64Array, angleRad: number, downhillRad: number, tol: number, maxIt: number): Landing {
+function follow(model: VehicleModel, x: Float64Array, beta: number, steps: number, soften: boolean, tol: number, maxIt: number): NewtonOutcome {
   initialGuess(model, x);
-  const first = land(model, x, newton(model, x, tol, maxIt, true));
-  if (first.status === 'converged') return first;
-  // Ease in: untilted on softened tyres, then step to the real tilt and stiffness, warm-starting
-  // each step; keep the first landing if that fails too (a real tip stays a tip).
-  _keep.set(x);
   let kmax = 0;
   for (const t of [model.vehicle.tyreFront, model.vehicle.tyreRear]) kmax = Math.max(kmax, t.stiffnessNPerM);
-  const s0 = Math.min(1, SOFT_TYRE_NPERM / kmax);
-  let iterations = first.iterations;
-  let ok = true;
-  model.setTilt(0, downhillRad);
-  initialGuess(model, x);
-  for (let k = 0; k <= CONTINUATION_STEPS; k++) {
-    const lambda = k / CONTINUATION_STEPS;
+  const s0 = soften ? Math.min(1, SOFT_TYRE_NPERM / kmax) : 1;
+  const G = GRAVITY_MPS2;
+  const g = model.gravity;
+  const sb = Math.sin(beta);
+  let iterations = 0;
+  let out: NewtonOutcome = { status: 'converged', reason: '', iterations: 0 };
+  for (let k = 0; k <= steps; k++) {
+    const lambda = k / steps;
     model.tyreRateScale = Math.pow(s0, 1 - lambda);
-    model.setTilt(lambda * angleRad, downhillRad);
-    const o = newton(model, x, k === CONTINUATION_STEPS ? tol : Math.max(tol, 1e-6), maxIt);
-    iterations += o.iterations;
-    if (o.status !== 'converged') {
-      ok = false;
-      break;
+    if (sb > 1e-12) {
+      const a = Math.sin((1 - lambda) * beta) / sb;
+      const b = Math.sin(lambda * beta) / sb;
+      for (let i = 0; i < 3; i++) g[i] = G * (a * -_n0[i] + b * _gTrue[i]);
     }
+    // Predictor for the grip field: its change on the fitted plane from the last gravity to this one.
+    gripOnPlane(g, _n0, _gripNow);
+    if (k === 0) {
+      x[Q_VX] = _gripNow[0];
+      x[Q_VY] = _gripNow[1];
+    } else {
+      x[Q_VX] += _gripNow[0] - _gripLast[0];
+      x[Q_VY] += _gripNow[1] - _gripLast[1];
+    }
+    _gripLast.set(_gripNow);
+    out = newton(model, x, k === steps ? tol : Math.max(tol, 1e-6), maxIt);
+    iterations += out.iterations;
+    if (out.status !== 'converged') break;
   }
   model.tyreRateScale = 1;
-  model.setTilt(angleRad, downhillRad);
-  if (ok) {
-    model.residual(x, true, residualOut);
-    const eased = land(model, x, { status: 'converged', reason: 'equilibrium found (eased in from the untilted pose)', iterations });
-    if (eased.status === 'converged' || first.status !== 'unstable') return { ...eased, iterations };
+  for (let i = 0; i < 3; i++) g[i] = G * _gTrue[i];
+  if (out.status === 'converged') model.residual(x, true, residualOut);
+  return { ...out, iterations };
+}
+
+/**
+ * The reference start (see the module comment) into x: the vehicle set down at ride height on a
+ * plane fitted to the ground under its wheels, with gravity along that plane's normal, and gravity
+ * then turned to the real one (the slope of the ground and the tilt applied progressively, as a
+ * tilt table is raised); where gravity is within DIRECT_MAX_RAD of the normal, one Newton solve from
+ * the guess. A stable landing ends it; else the same path with the tyres eased in from soft. On
+ * return the model's buffers hold x's full evaluation and residualOut its residual.
+ */
+function solveReference(model: VehicleModel, x: Float64Array, tol: number, maxIt: number): Landing {
+  initialGuess(model, x);
+  const g = model.gravity;
+  const G = Math.hypot(g[0], g[1], g[2]);
+  for (let i = 0; i < 3; i++) {
+    _gTrue[i] = g[i] / G;
+    _n0[i] = guessNormal[i];
   }
+  const cosBeta = -(_gTrue[0] * _n0[0] + _gTrue[1] * _n0[1] + _gTrue[2] * _n0[2]);
+  const beta = Math.acos(Math.max(-1, Math.min(1, cosBeta)));
+  const steps = Math.max(CONTINUATION_STEPS, Math.ceil(beta / CONTINUATION_STEP_RAD));
+  let iterations = 0;
+  let first: Landing | null = null;
+  for (let attempt = 0; attempt < 3; attempt++) {
+    let out: NewtonOutcome;
+    if (attempt === 0) {
+      if (beta >= DIRECT_MAX_RAD) continue;
+      out = newton(model, x, tol, maxIt, true);
+    } else {
+      out = follow(model, x, beta, steps, attempt === 2, tol, maxIt);
+    }
+    const l = land(model, x, out);
+    iterations += l.iterations;
+    if (l.status === 'converged') {
+      return { ...l, iterations, reason: attempt === 0 ? l.reason : 'equilibrium found (the slope and tilt applied progressively from the vehicle set down square)' };
+    }
+    if (first === null) {
+      first = l;
+      _keep.set(x);
+    }
+  }
+  // Newton stalled (a tyre on an edge can leave the start just outside its reach): the same start
+  // nudged up and down a little, in a fixed order.
+  if (first !== null && first.status === 'not-converged') {
+    for (const dz of NUDGES_M) {
+      initialGuess(model, x);
+      x[Q_Z] += dz;
+      const l = land(model, x, newton(model, x, tol, maxIt, true));
+      iterations += l.iterations;
+      if (l.status === 'converged') return { ...l, iterations, reason: 'equilibrium found (from the set-down pose nudged by a few centimetres)' };
+    }
+  }
+  // No stable landing: report the first attempt's end (a real tip stays a tip).
   x.set(_keep);
   model.residual(x, true, residualOut);
-  return { ...first, iterations };
+  return { ...(first as Landing), iterations };
 }
 
 /**
@@ -155,6 +226,6 @@ export function solveEquilibrium(model: VehicleModel, pose: Pose, options: Solve
     }
     iterations = l.iterations;
   }
-  const l = solveReference(model, x, tilt.angleRad, tilt.downhillRad, tol, maxIt);
+  const l = solveReference(model, x, tol, maxIt);
   return buildResult(model, x, residualOut, l.status, iterations + l.iterations, l.reason, friction, l.minEigen);
 }

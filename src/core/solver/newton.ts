@@ -74,7 +74,29 @@ export function groundUnderWheels(model: VehicleModel, out: Float64Array): Float
   return out;
 }
 
-/** Ride-height guess: the body laid on a plane fitted to the ground under the four wheels. */
+const _grip = new Float64Array(2);
+
+/**
+ * The grip field that holds a vehicle on a plane of unit normal n under gravity g: the tangential
+ * part of gravity over its normal part, taken back to the terrain x-y plane along the normal
+ * (T = N·P v, P the projection on the plane), into out (vx, vy). On level ground −(gx, gy)/|gz|.
+ */
+export function gripOnPlane(g: Float64Array, n: Float64Array, out: Float64Array): Float64Array {
+  const nx = n[0], ny = n[1], nz = n[2];
+  const gn = g[0] * nx + g[1] * ny + g[2] * nz;
+  const gd = Math.abs(gn) > 1e-9 ? Math.abs(gn) : 1e-9;
+  const tx = -(g[0] - gn * nx) / gd;
+  const ty = -(g[1] - gn * ny) / gd;
+  const tz = -(g[2] - gn * nz) / gd;
+  out[0] = tx - (tz * nx) / nz;
+  out[1] = ty - (tz * ny) / nz;
+  return out;
+}
+
+/** Unit normal of the plane the last initialGuess fitted to the ground under the wheels (terrain frame). */
+export const guessNormal = new Float64Array([0, 0, 1]);
+
+/** Ride-height guess: the body laid on a plane fitted to the ground under the four wheels (its normal into guessNormal). */
 export function initialGuess(model: VehicleModel, x: Float64Array): void {
   x.fill(0);
   const h = groundUnderWheels(model, _groundGuess);
@@ -84,8 +106,10 @@ export function initialGuess(model: VehicleModel, x: Float64Array): void {
   const slopeX = (h[0] + h[1] - h[2] - h[3]) / (2 * L);
   const slopeY = (h[0] - h[1] + h[2] - h[3]) / (2 * T);
   x[Q_Z] = mean;
+  // The body's z axis along the fitted plane's normal (−slopeX, −slopeY, 1) in the heading frame:
+  // R = Rz Ry(θ) Rx(φ) takes z to (sin θ cos φ, −sin φ, cos θ cos φ).
   x[Q_PITCH] = -Math.atan(slopeX);
-  x[Q_ROLL] = Math.atan(slopeY);
+  x[Q_ROLL] = Math.asin(slopeY / Math.sqrt(1 + slopeX * slopeX + slopeY * slopeY));
   for (let a = 0; a < 2; a++) {
     const ax = model.axles[a];
     const sign = a === 0 ? 1 : -1;
@@ -100,10 +124,19 @@ export function initialGuess(model: VehicleModel, x: Float64Array): void {
       x[Q_SUSP + 2 * a + 1] = clampT(tR);
     }
   }
-  const g = model.gravity;
-  const gn = Math.abs(g[2]) > 1e-9 ? Math.abs(g[2]) : 1e-9;
-  x[Q_VX] = -g[0] / gn;
-  x[Q_VY] = -g[1] / gn;
+  const c = Math.cos(model.headingRad);
+  const s = Math.sin(model.headingRad);
+  // Plane slope in the terrain frame: ∂h/∂x, ∂h/∂y from the body-frame slopes.
+  const hx = c * slopeX - s * slopeY;
+  const hy = s * slopeX + c * slopeY;
+  const nl = Math.sqrt(hx * hx + hy * hy + 1);
+  const nx = -hx / nl, ny = -hy / nl, nz = 1 / nl;
+  guessNormal[0] = nx;
+  guessNormal[1] = ny;
+  guessNormal[2] = nz;
+  gripOnPlane(model.gravity, guessNormal, _grip);
+  x[Q_VX] = _grip[0];
+  x[Q_VY] = _grip[1];
 }
 
 /**
