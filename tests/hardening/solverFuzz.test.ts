@@ -61,9 +61,9 @@ function checkResult(r: SolveResult, wheelbaseM: number): string | null {
   if (r.residualNm > 1e-6 * W * wheelbaseM) return `moment residual ${r.residualNm} N·m over 1e-6·W·L`;
   let up = 0;
   for (const w of r.wheels) {
-    if (w.loadN < 0) return `${w.name} pulls on the ground (${w.loadN} N)`;
+    if (w.loadN! < 0) return `${w.name} pulls on the ground (${w.loadN!} N)`;
     if (w.lifted && w.loadN !== 0) return `${w.name} lifted but carries ${w.loadN} N`;
-    up += w.verticalLoadN;
+    up += w.verticalLoadN!;
   }
   if (Math.abs(up - W) > 1e-5 * W) return `ground forces hold ${up} N of ${W} N`;
   return null;

@@ -253,11 +253,11 @@ export function runPass(model: VehicleModel, path: PathSpec, opts: PassOptions =
       for (let e = 0; e < WHEEL_KINDS.length; e++) {
         let on: boolean;
         switch (e) {
-          case K_LIGHT: on = wk.lifted || wk.loadShare < lightShare; break;
+          case K_LIGHT: on = wk.lifted || (wk.loadShare ?? 0) < lightShare; break;
           case K_LIFT: on = wk.lifted; break;
-          case K_BUMP: on = wk.travelFraction >= 1 - STOP_FRACTION_TOLERANCE; break;
-          case K_DROOP: on = wk.travelFraction <= -1 + STOP_FRACTION_TOLERANCE; break;
-          case K_FRICTION: on = !wk.lifted && wk.frictionDemand > friction; break;
+          case K_BUMP: on = (wk.travelFraction ?? 0) >= 1 - STOP_FRACTION_TOLERANCE; break;
+          case K_DROOP: on = (wk.travelFraction ?? 0) <= -1 + STOP_FRACTION_TOLERANCE; break;
+          case K_FRICTION: on = !wk.lifted && (wk.frictionDemand ?? 0) > friction; break;
           default: on = false;
         }
         const slot = e * 4 + k;
@@ -297,7 +297,7 @@ export function runPass(model: VehicleModel, path: PathSpec, opts: PassOptions =
 }
 
 function passWheel(w: WheelResult): PassWheel {
-  return { loadN: w.loadN, loadShare: w.loadShare, travelFraction: w.travelFraction, lifted: w.lifted, frictionDemand: w.frictionDemand };
+  return { loadN: (w.loadN ?? 0), loadShare: (w.loadShare ?? 0), travelFraction: (w.travelFraction ?? 0), lifted: w.lifted, frictionDemand: (w.frictionDemand ?? 0) };
 }
 
 function kindOrder(k: PassEventKind): number {

@@ -252,11 +252,11 @@ export interface SolveOptions {
 export interface WheelResult {
   readonly name: WheelName;
   /** Normal load: the tyre's radial resultant, along the contact normal (N). 0 when lifted. */
-  readonly loadN: number;
+  readonly loadN: number | null;
   /** Total ground force (normal + tangential) along the gravity up direction: what a scale under the tyre reads (N). */
-  readonly verticalLoadN: number;
+  readonly verticalLoadN: number | null;
   /** loadN / the wheel's load standing on level ground (1 = unchanged). */
-  readonly loadShare: number;
+  readonly loadShare: number | null;
   /** The wheel's load standing on level ground, untilted (N). */
   readonly staticLoadN: number;
   readonly lifted: boolean;
@@ -269,15 +269,15 @@ export interface WheelResult {
   /** Tyre axis (unit, pointing to the vehicle's left), terrain frame. */
   readonly axisWorld: readonly [number, number, number];
   /** Suspension travel from ride height, positive in bump (m). */
-  readonly travelM: number;
+  readonly travelM: number | null;
   /** Travel as a fraction of what is available that way: +1 full bump, −1 full droop (can pass ±1 into the stops). */
-  readonly travelFraction: number;
+  readonly travelFraction: number | null;
   /** Mean tyre deflection along the normal, load-weighted (m). */
-  readonly tyreDeflectionM: number;
+  readonly tyreDeflectionM: number | null;
   /** Tangential (grip) force at the contact (N). */
-  readonly tangentialN: number;
+  readonly tangentialN: number | null;
   /** tangentialN / loadN: the friction coefficient this wheel needs (0 when lifted). */
-  readonly frictionDemand: number;
+  readonly frictionDemand: number | null;
 }
 
 export interface StabilityMargins {

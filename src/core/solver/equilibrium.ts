@@ -48,7 +48,7 @@ export function buildModel(vehicle: Vehicle, terrain: Terrain, options: Partial<
   model.field = new TerrainField({ features: [] });
   const level = solveEquilibrium(model, { xM: 0, yM: 0, headingRad: 0 });
   if (level.status === 'converged') {
-    for (let i = 0; i < 4; i++) model.staticLoadN[i] = level.wheels[i].loadN;
+    for (let i = 0; i < 4; i++) model.staticLoadN[i] = level.wheels[i].loadN ?? model.staticLoadN[i];
   }
   model.field = field;
   return model;

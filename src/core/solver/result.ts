@@ -158,17 +158,33 @@ export function buildResult(
     }
   }
 
+  // A pose that does not stand carries no loads, travels or grip figures as if they were real: they
+  // belong to no equilibrium (or to an unstable one). Positions and the lifted flags stay for drawing.
+  const standing = status === 'converged';
+  const shown: WheelResult[] = standing
+    ? wheels
+    : wheels.map((w) => ({
+        ...w,
+        loadN: null,
+        verticalLoadN: null,
+        loadShare: null,
+        travelM: null,
+        travelFraction: null,
+        tyreDeflectionM: null,
+        tangentialN: null,
+        frictionDemand: null,
+      }));
   const poly: [number, number, number][] = mg.hull.map((h) => [_pts[3 * h], _pts[3 * h + 1], _pts[3 * h + 2]]);
   return {
     status,
-    standing: status === 'converged',
+    standing,
     stiffnessMinEigen: minEigen,
     reason,
     iterations,
     evaluations: model.fullEvaluations,
     residualN: finite(resF),
     residualNm: finite(resM),
-    wheels: wheels as unknown as SolveResult['wheels'],
+    wheels: shown as unknown as SolveResult['wheels'],
     body: {
       heaveM: finite(x[Q_Z] - groundMean),
       rollRad: finite(x[Q_ROLL]),

@@ -18,7 +18,7 @@ const QUICK_BRACKET_RAD = 0.25 * DEG;
 
 function maxDemand(r: SolveResult): number {
   let d = 0;
-  for (const w of r.wheels) if (!w.lifted && w.frictionDemand > d) d = w.frictionDemand;
+  for (const w of r.wheels) if (!w.lifted && (w.frictionDemand ?? 0) > d) d = (w.frictionDemand ?? 0);
   return d;
 }
 
@@ -33,7 +33,7 @@ function anyLifted(r: SolveResult): boolean {
 /** The lightest load among the wheels still down (N): falls to zero as the first wheel lifts. */
 function lightestLoad(r: SolveResult): number {
   let m = Infinity;
-  for (const w of r.wheels) if (!w.lifted && w.loadN < m) m = w.loadN;
+  for (const w of r.wheels) if (!w.lifted && (w.loadN ?? 0) < m) m = (w.loadN ?? 0);
   return m;
 }
 
@@ -42,7 +42,7 @@ export function toSample(angleRad: number, r: SolveResult): TiltSample {
   return {
     angleRad,
     status: r.status,
-    loadsN: [w[0].loadN, w[1].loadN, w[2].loadN, w[3].loadN],
+    loadsN: [(w[0].loadN ?? 0), (w[1].loadN ?? 0), (w[2].loadN ?? 0), (w[3].loadN ?? 0)],
     lifted: [w[0].lifted, w[1].lifted, w[2].lifted, w[3].lifted],
     forceAngleRad: r.margins.forceAngleRad,
     energyM: r.margins.energyM,
@@ -148,13 +148,13 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
     let best = -1;
     for (let i = 0; i < 4; i++) {
       if (!hiRes.wheels[i].lifted || loRes.wheels[i].lifted) continue;
-      if (best < 0 || loRes.wheels[i].loadN < loRes.wheels[best].loadN) best = i;
+      if (best < 0 || (loRes.wheels[i].loadN ?? 0) < (loRes.wheels[best].loadN ?? 0)) best = i;
     }
     if (best < 0) {
       for (let i = 0; i < 4; i++) if (hiRes.wheels[i].lifted) return WHEEL_NAMES[i];
       // Nothing lifted at hi (the tip came first): the wheel with least load at lo goes first.
       best = 0;
-      for (let i = 1; i < 4; i++) if (loRes.wheels[i].loadN < loRes.wheels[best].loadN) best = i;
+      for (let i = 1; i < 4; i++) if ((loRes.wheels[i].loadN ?? 0) < (loRes.wheels[best].loadN ?? 0)) best = i;
     }
     return WHEEL_NAMES[best];
   };

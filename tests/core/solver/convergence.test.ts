@@ -129,10 +129,10 @@ describe('solveEquilibrium converges where an equilibrium exists', () => {
       const check = solveEquilibrium(model, c.pose, { ...c.options, warmStart: ref, maxIterations: 0, followBranch: true });
       expect(check.status).toBe('converged');
       expect(check.margins.forceAngleRad).toBeGreaterThan(0);
-      const loads = check.wheels.map((w) => w.loadN.toFixed(0)).join(', ');
-      const got = r.wheels.map((w) => w.loadN.toFixed(0)).join(', ');
+      const loads = check.wheels.map((w) => w.loadN!.toFixed(0)).join(', ');
+      const got = r.wheels.map((w) => w.loadN!.toFixed(0)).join(', ');
       expect(r.status, `${r.reason}; equilibrium loads ${loads} N, solver stopped at ${got} N`).toBe('converged');
-      for (let i = 0; i < 4; i++) expect(Math.abs(r.wheels[i].loadN - check.wheels[i].loadN)).toBeLessThan(1e-6 * r.weightN);
+      for (let i = 0; i < 4; i++) expect(Math.abs(r.wheels[i].loadN! - check.wheels[i].loadN!)).toBeLessThan(1e-6 * r.weightN);
     });
   }
 });
