@@ -309,7 +309,7 @@ export interface BodyResult {
   readonly pitchToLevelRad: number;
   /** Total CG (vehicle + payload + unsprung at the wheels), terrain frame (m). */
   readonly cgWorld: readonly [number, number, number];
-  /** Point where the plumb line from the CG meets the plane of the support polygon, terrain frame (m). */
+  /** Point where the plumb line from the CG meets the ground, terrain frame (m). */
   readonly plumbPointWorld: readonly [number, number, number];
 }
 

@@ -8,6 +8,41 @@ import { stabilityMargins } from './margins';
 import { Q_PITCH, Q_ROLL, Q_Z, R_SUSP, type VehicleModel } from './model';
 import { groundUnderWheels } from './newton';
 
+const _gradPlumb = new Float64Array(2);
+
+/**
+ * Where the plumb line from the CG (along the unit gravity direction g) meets the ground: Newton on
+ * f(t) = (cg + t·g)_z − h((cg + t·g)_xy), safeguarded by bisection once bracketed; falls back to
+ * `fallback` (the point on the support plane) when no crossing is found.
+ */
+function plumbOnGround(
+  model: VehicleModel,
+  cg: readonly [number, number, number],
+  g: readonly [number, number, number],
+  fallback: readonly [number, number, number],
+): [number, number, number] {
+  const field = model.field;
+  // Start from the support plane's point: the ground is near it.
+  let t = (fallback[0] - cg[0]) * g[0] + (fallback[1] - cg[1]) * g[1] + (fallback[2] - cg[2]) * g[2];
+  if (!Number.isFinite(t)) t = 0;
+  let lo = -Infinity;
+  let hi = Infinity;
+  for (let it = 0; it < 50; it++) {
+    const x = cg[0] + t * g[0];
+    const y = cg[1] + t * g[1];
+    const f = cg[2] + t * g[2] - field.sample(x, y, _gradPlumb);
+    if (Math.abs(f) < 1e-10) return [x, y, cg[2] + t * g[2]];
+    // f falls as t grows while the line goes down faster than the ground along it.
+    if (f > 0) lo = Math.max(lo, t);
+    else hi = Math.min(hi, t);
+    const df = g[2] - _gradPlumb[0] * g[0] - _gradPlumb[1] * g[1];
+    let next = df < 0 ? t - f / df : NaN;
+    if (!(next > lo && next < hi)) next = Number.isFinite(lo) && Number.isFinite(hi) ? 0.5 * (lo + hi) : t + (f > 0 ? 0.5 : -0.5);
+    t = next;
+  }
+  return [fallback[0], fallback[1], fallback[2]];
+}
+
 /** Travel below this counts as none when expressing travel as a fraction of what is available (m). */
 const MIN_TRAVEL_M = 1e-9;
 const _ground = new Float64Array(4);
@@ -192,7 +227,7 @@ export function buildResult(
       rollToLevelRad: finite(Math.atan2(yUp, zUp)),
       pitchToLevelRad: finite(-Math.asin(Math.max(-1, Math.min(1, xUp)))),
       cgWorld: cg,
-      plumbPointWorld: mg.plumb,
+      plumbPointWorld: plumbOnGround(model, cg, [-up[0], -up[1], -up[2]], mg.plumb),
     },
     margins,
     supportPolygonWorld: poly,
