@@ -11,7 +11,6 @@
  */
 import type { SolveResult, Vehicle } from '../model/types';
 import type { TerrainField } from '../terrain/field';
-import { Q_Z } from '../solver/model';
 
 /** Parts of the underbody, as reported. */
 export type UnderbodyPart = 'belly' | 'front' | 'rear' | 'front-axle' | 'rear-axle';
@@ -53,7 +52,6 @@ export class UnderbodySampler {
   readonly partOf: Uint8Array;
   readonly count: number;
   private readonly axleSamples: Float64Array;
-  private readonly _rot = new Float64Array(9);
   /** Smallest gap per part (UNDERBODY_PARTS order) at the last `measure` (m; Infinity for a part with no points). */
   readonly partMinM = new Float64Array(UNDERBODY_PARTS.length);
 
@@ -106,17 +104,9 @@ export class UnderbodySampler {
    * Precondition: `r` is a result of the model whose vehicle built this sampler, at heading headingRad.
    */
   measure(field: TerrainField, r: SolveResult, poseXM: number, poseYM: number, headingRad: number): ClearanceResult {
-    const R = this._rot;
-    const roll = r.body.rollRad;
-    const pitch = r.body.pitchRad;
-    // Body rotation R = Rz(heading) · Ry(pitch) · Rx(roll), the solver's convention (model.ts).
-    const cp = Math.cos(headingRad), sp = Math.sin(headingRad);
-    const ct = Math.cos(pitch), st = Math.sin(pitch);
-    const cf = Math.cos(roll), sf = Math.sin(roll);
-    R[0] = cp * ct; R[1] = cp * st * sf - sp * cf; R[2] = cp * st * cf + sp * sf;
-    R[3] = sp * ct; R[4] = sp * st * sf + cp * cf; R[5] = sp * st * cf - cp * sf;
-    R[6] = -st; R[7] = ct * sf; R[8] = ct * cf;
-    const oz = r.state[Q_Z];
+    // The body frame as solved (src/core/solver/frame.ts): p_terrain = origin + R · p_body.
+    const R = r.body.frame.rotation;
+    const oz = r.body.frame.originM[2];
     const P = this.pointsBody;
     let best = Infinity, bx = 0, by = 0, bz = 0, bp = 0;
     const pm = this.partMinM;

@@ -297,7 +297,20 @@ export interface StabilityMargins {
   readonly weakestEdgeWheels: readonly WheelName[];
 }
 
+/**
+ * The body frame of a pose as plain data (src/core/solver/frame.ts maps body points with it): origin at
+ * the reference point, rotation R = Rz(heading) · Ry(pitch) · Rx(roll), row-major, body → terrain.
+ */
+export interface BodyFrame {
+  /** The reference point in the terrain frame (m). */
+  readonly originM: readonly [number, number, number];
+  /** 3×3 rotation, row-major (9 numbers): terrain components = R · body components. */
+  readonly rotation: readonly number[];
+}
+
 export interface BodyResult {
+  /** The body frame (position and attitude) as plain data. */
+  readonly frame: BodyFrame;
   /** Reference point height above its rest height on the local ground (m). */
   readonly heaveM: number;
   /** Body roll relative to the terrain (table) frame, ISO 8855 sign: positive = right side down (rad). */

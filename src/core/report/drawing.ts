@@ -9,27 +9,14 @@
  */
 import type { Pose, SolveResult, Vehicle } from '../model/types';
 import type { TerrainField } from '../terrain/field';
-import { Q_Z } from '../solver/model';
+import { bodyToTerrain } from '../solver/frame';
 import { esc, fixed } from './text';
 
 type V3 = readonly [number, number, number];
 
-/** Body rotation R = Rz(heading) · Ry(pitch) · Rx(roll): the solver's convention (model.ts). */
-function bodyToWorld(r: SolveResult, pose: Pose): (p: V3) => V3 {
-  const cp = Math.cos(pose.headingRad), sp = Math.sin(pose.headingRad);
-  const ct = Math.cos(r.body.pitchRad), st = Math.sin(r.body.pitchRad);
-  const cf = Math.cos(r.body.rollRad), sf = Math.sin(r.body.rollRad);
-  const R = [
-    cp * ct, cp * st * sf - sp * cf, cp * st * cf + sp * sf,
-    sp * ct, sp * st * sf + cp * cf, sp * st * cf - cp * sf,
-    -st, ct * sf, ct * cf,
-  ];
-  const oz = r.state[Q_Z];
-  return ([x, y, z]) => [
-    pose.xM + R[0] * x + R[1] * y + R[2] * z,
-    pose.yM + R[3] * x + R[4] * y + R[5] * z,
-    oz + R[6] * x + R[7] * y + R[8] * z,
-  ];
+/** Body point → terrain frame, with the solved body frame (src/core/solver/frame.ts). */
+function bodyToWorld(r: SolveResult, _pose: Pose): (p: V3) => V3 {
+  return ([x, y, z]) => bodyToTerrain(r.body.frame, x, y, z) as [number, number, number];
 }
 
 interface View {

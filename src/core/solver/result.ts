@@ -7,6 +7,7 @@ import { WHEEL_NAMES } from '../model/types';
 import { stabilityMargins } from './margins';
 import { Q_PITCH, Q_ROLL, Q_Z, R_SUSP, type VehicleModel } from './model';
 import { groundUnderWheels } from './newton';
+import { bodyFrameOf } from './frame';
 
 const _gradPlumb = new Float64Array(2);
 
@@ -221,6 +222,7 @@ export function buildResult(
     residualNm: finite(resM),
     wheels: shown as unknown as SolveResult['wheels'],
     body: {
+      frame: bodyFrameOf(model, x),
       heaveM: finite(x[Q_Z] - groundMean),
       rollRad: finite(x[Q_ROLL]),
       pitchRad: finite(x[Q_PITCH]),
