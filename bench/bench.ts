@@ -11,6 +11,7 @@ import { buildModel, solveEquilibrium } from '../src/core/solver/equilibrium';
 import type { VehicleModel } from '../src/core/solver/model';
 import { STATE_SIZE } from '../src/core/solver/model';
 import { tiltSweep } from '../src/core/solver/tilt';
+import { createStabilityScratch, stabilityOf } from '../src/core/solver/stability';
 import { TerrainField } from '../src/core/terrain/field';
 import { DEFAULT_TYRE_MODEL, TyreContact, calibrateTyre, evaluateTyre, makeTyreLayout } from '../src/core/tyre/radialSpring';
 import { runLinesParallel } from '../src/cli/parallel';
@@ -75,6 +76,8 @@ export const FIGURE_NAMES = [
   'solve.cold',
   'solve.warm',
   'solve.warmPerEval',
+  'solve.stability',
+  'solve.reference',
   'tilt.sweep',
   'rose.72',
   'pass.1000',
@@ -212,6 +215,39 @@ export async function runBench(opts: BenchOptions = {}): Promise<BenchReport> {
     push(figure('solve.atRest', rest, 'ms', 'warm-started from its own solution (0 iterations): one full evaluation plus building the result (margins, support polygon)'));
     push(figure('solve.evalJacobian', t.b.map((ms) => ms * US_PER_MS), 'µs', 'one full residual (tyre springs cast) + 10 linearised residuals (the Jacobian), at the converged states'));
     push(figure('solve.warmPerEval', ratios(t.a, t.b), '×', 'warm solve / (one evaluation + Jacobian), run by run; 1 = the least work possible'));
+  }
+
+  {
+    // The second-order check as the solver runs it after a converged solve (the full evaluation at
+    // the state already done): paired with that evaluation alone, the difference run by run.
+    const sc = createStabilityScratch();
+    const r = new Float64Array(STATE_SIZE);
+    const evalOnly = (k: number) => {
+      const i = k % nPoses;
+      model.setPose(poses[i].xM, poses[i].yM, poses[i].headingRad);
+      model.setTilt(0, 0);
+      model.residual(converged[i], true, r);
+    };
+    const withCheck = (k: number) => {
+      evalOnly(k);
+      stabilityOf(model, converged[k % nPoses], sc, { fresh: false });
+    };
+    const t = timePaired(withCheck, evalOnly, P.solve(nPoses));
+    push(
+      figure(
+        'solve.stability',
+        t.a.map((a, j) => (a - t.b[j]) * US_PER_MS),
+        'µs',
+        'stability check of a converged pose (tangent stiffness by central differences over the tyre linearisation, Jacobi eigenvalues; over the full equations only near zero), rock-garden poses',
+      ),
+    );
+    // The reference start where it does the most: the demo vehicle on a 20° side hill at 36
+    // headings, no warm start (set down square on the ground, gravity turned to the real one in steps).
+    const hill = buildModel(vehicle, { features: [{ type: 'plane', gradeRad: 0, crossSlopeRad: -20 * DEG, heightM: 0 }] });
+    const headings = Array.from({ length: 36 }, (_, k) => ({ xM: 0, yM: 0, headingRad: k * 10 * DEG }));
+    const refRes = headings.map((h) => solveEquilibrium(hill, h));
+    const ref = timeRuns((k) => void solveEquilibrium(hill, headings[k % headings.length]), P.solve(headings.length));
+    push(figure('solve.reference', ref, 'ms', `a solve from the reference start (no warm start) on a 20° side hill, 36 headings (${statusCounts(refRes)})`));
   }
 
   // --- 4. Tilt sweep to tip, 72-direction rose, 1000-station pass, 200-line sweep.
