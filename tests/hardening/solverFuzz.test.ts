@@ -69,13 +69,14 @@ interface Tally {
   tipped: number;
   'no-contact': number;
   'not-converged': number;
+  unstable: number;
   nonFinite: number;
   failures: string[];
 }
 
 describe('solver over random valid inputs (hardening)', () => {
   it(`${RANDOM_CASES} random vehicles, terrains and poses: converged or a typed outcome, never NaN, same output twice`, () => {
-    const tally: Tally = { tried: 0, converged: 0, tipped: 0, 'no-contact': 0, 'not-converged': 0, nonFinite: 0, failures: [] };
+    const tally: Tally = { tried: 0, converged: 0, tipped: 0, 'no-contact': 0, 'not-converged': 0, unstable: 0, nonFinite: 0, failures: [] };
     const samples = fc.sample(caseArb, { numRuns: RANDOM_CASES, seed: SEED });
     for (const c of samples) {
       const terrain: Terrain = { features: c.features };

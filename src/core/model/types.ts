@@ -213,7 +213,12 @@ export type SolveStatus =
   /** No tyre touches the ground (the vehicle would fall), e.g. tilted past 90°. */
   | 'no-contact'
   /** The iteration cap was reached without meeting the residual bound. */
-  | 'not-converged';
+  | 'not-converged'
+  /**
+   * The forces balance, but the balance is unstable (the tangent stiffness of the configuration is
+   * not positive definite, src/core/solver/stability.ts): any disturbance takes it over. Never standing.
+   */
+  | 'unstable';
 
 export interface SolveOptions {
   /** Tilt-table setting. @default no tilt */

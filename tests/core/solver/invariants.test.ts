@@ -136,7 +136,7 @@ function loadsOf(r: SolveResult): number[] {
   return r.wheels.map((w) => w.loadN);
 }
 
-const statusCount: Record<SolveStatus, number> = { converged: 0, tipped: 0, 'no-contact': 0, 'not-converged': 0 };
+const statusCount: Record<SolveStatus, number> = { converged: 0, tipped: 0, 'no-contact': 0, 'not-converged': 0, unstable: 0 };
 const otherCases: string[] = [];
 
 describe('equilibrium invariants (property-based, seeded)', () => {
