@@ -11,7 +11,8 @@
  * stability.ts) and has its plumb line inside the support (force-angle ≥ 0). The tip is located
  * where that stops being true, bracketed to the resolution (0.01°) from the last stable state:
  * - 'fold': the smallest eigenvalue reaches zero (a compliant vehicle can fold before its plumb
- *   line reaches the support edge; past a fold no equilibrium is near);
+ *   line reaches the support edge; past a fold no equilibrium is near), or falls below
+ *   MIN_STIFFNESS_EIGEN, which is no stiffness within what the method can tell;
  * - 'plumb-line-at-edge': the plumb line from the CG reaches the edge of the support;
  * whichever comes first. A Newton failure is never taken as the tip on its own: a failure from a
  * stable state more than the resolution away is retried with a smaller step, and one within the
@@ -40,9 +41,30 @@ const QUICK_BRACKET_RAD = 0.25 * DEG;
  * (rad): more means Newton jumped to another branch (e.g. a balance on two wheels), not followed this one.
  */
 const BRANCH_TURN_RAD = 2 * DEG;
+/**
+ * Smallest stiffness eigenvalue (per W·L, see stability.ts) taken as none: below it the softest
+ * mode is within what the method can tell of neutral (the grip field held fixed makes the tangent
+ * stiffness an approximation; finite differences put a few thousandths of noise on it). Near a
+ * true fold the eigenvalue falls like the square root of the distance to it, so the floor moves
+ * such a tip by well under the 0.01° resolution.
+ */
+export const MIN_STIFFNESS_EIGEN = 0.01;
+/**
+ * Below this smallest eigenvalue the stance is nearly neutral: three-wheel stances of vehicles with
+ * a solid axle hover at 0.00–0.02 over several degrees of tilt (the body rolling against one axle
+ * with a wheel hanging), and where in that stretch it reaches the floor is ill-conditioned (it can
+ * move by several degrees between neighbouring directions). The tip reports where such a stretch
+ * began (softFrom), which moves smoothly.
+ */
+export const NEAR_NEUTRAL_EIGEN = 0.03;
 /** A last stable state this close to either criterion ends the branch when the next step fails (per W·L; rad). */
-const NEAR_FOLD_EIGEN = 0.02;
+const NEAR_FOLD_EIGEN = 0.03;
 const NEAR_EDGE_RAD = 0.2 * DEG;
+/**
+ * A nearly neutral stretch shorter than this before the tip is not reported (rad): near a sharp
+ * fold the eigenvalue passes NEAR_NEUTRAL_EIGEN only a few hundredths of a degree before it.
+ */
+const SOFT_STRETCH_RAD = 1 * DEG;
 /** Where a failed step lies within the resolution of a state far from both criteria, these tilts beyond it are tried with full solves. */
 const STEP_OVER_RAD = [0.03 * DEG, 0.1 * DEG, 0.5 * DEG];
 
@@ -78,6 +100,14 @@ export interface TiltTip extends TiltAngle {
   /** At the last stable state: smallest eigenvalue of the tangent stiffness (per W·L) and force-angle (rad). */
   readonly lastMinEigen: number;
   readonly lastForceAngleRad: number;
+  /**
+   * For a fold reached by the stiffness fading rather than by a sharp loss: where the stance became
+   * nearly neutral (smallest eigenvalue below NEAR_NEUTRAL_EIGEN) and stayed so up to the tip, when
+   * that began more than 1° before it. The tip then lies somewhere on that soft stretch and is not
+   * sharply defined (it can move by several degrees between neighbouring directions); treat this
+   * angle as the limit. Null otherwise.
+   */
+  readonly softFrom: TiltAngle | null;
 }
 
 /** The sweep's result: TiltSweepResult with the datums, the tip's reason and the start. */
@@ -192,7 +222,7 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
       }
     }
     const minEigen = minEigenOf(r);
-    if (!(minEigen > 0)) return { verdict: 'unstable', minEigen };
+    if (!(minEigen > MIN_STIFFNESS_EIGEN)) return { verdict: 'unstable', minEigen };
     if (r.margins.forceAngleRad < 0) return { verdict: 'outside', minEigen };
     return { verdict: 'ok', minEigen };
   };
@@ -312,6 +342,7 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
       reason: 'does-not-stand-at-start',
       lastMinEigen: j0.minEigen,
       lastForceAngleRad: r0.margins.forceAngleRad,
+      softFrom: null,
     };
     return done();
   }
@@ -325,6 +356,8 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
   let hiVerdict: Verdict = 'failed';
   let hiRes: SolveResult | null = null;
   let stepsOver = 0;
+  /** First accepted tilt of the current nearly neutral stretch (NaN: not in one). */
+  let softSince = j0.minEigen < NEAR_NEUTRAL_EIGEN ? start : NaN;
   while (p1.angle < maxAngle - 1e-12) {
     if (hi - p1.angle <= resolution) {
       // The branch ends within the resolution past p1, unless the failure there was numerical:
@@ -386,6 +419,7 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
       reason,
       lastMinEigen: lo.minEigen,
       lastForceAngleRad: lo.r.margins.forceAngleRad,
+      softFrom: reason === 'fold' && !Number.isNaN(softSince) && tipAngle - softSince > SOFT_STRETCH_RAD ? at(softSince) : null,
     };
     if (!firstLift) {
       firstLift = { ...at(tipAngle), wheel: liftedWheel(lo.r, hiRes && hiRes.status === 'converged' ? hiRes : lo.r), atTip: true };
@@ -405,6 +439,14 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
       slide = at(b.angleRad);
     }
     samples.push(toSample(next.angle, next.r));
+    if (next.minEigen >= NEAR_NEUTRAL_EIGEN) softSince = NaN;
+    else if (Number.isNaN(softSince)) {
+      // The stretch began in this step: at the lift if one came in it (a wheel lifting drops the
+      // stiffness at once), else where the eigenvalue crossed the threshold (linearly).
+      const liftHere = firstLift && !firstLift.atTip && firstLift.angleRad > prev.angle && firstLift.angleRad <= next.angle;
+      const f = (prev.minEigen - NEAR_NEUTRAL_EIGEN) / (prev.minEigen - next.minEigen);
+      softSince = liftHere ? firstLift!.angleRad : prev.angle + Math.max(0, Math.min(1, f)) * (next.angle - prev.angle);
+    }
     p0 = prev;
     p1 = next;
   }
