@@ -360,9 +360,9 @@ export async function runBench(opts: BenchOptions = {}): Promise<BenchReport> {
       simS = ref.simulatedTimeS;
       steps = ref.steps;
       let d = 0;
-      for (let i = 0; i < 4; i++) d = Math.max(d, Math.abs(sol.wheels[i].loadN - ref.loadsN[i]) / ref.weightN);
+      for (let i = 0; i < 4; i++) d = Math.max(d, Math.abs((sol.wheels[i].loadN ?? 0) - ref.loadsN[i]) / ref.weightN);
       diffs.push(d);
-      settle = { cannonN: [...ref.loadsN], plumblineN: sol.wheels.map((w) => w.loadN), weightN: ref.weightN, settled: ref.settled && sol.status === 'converged' };
+      settle = { cannonN: [...ref.loadsN], plumblineN: sol.wheels.map((w) => (w.loadN ?? 0)), weightN: ref.weightN, settled: ref.settled && sol.status === 'converged' };
     }
     const scn = 'test rig, front-left wheel on a 0.3 m block';
     push(figure('settle.cannon', cannonMs, 'ms', `settleWithCannon (1/500 s steps until loads stay within 0.5 % of weight for 0.5 s): ${scn}; ${steps} steps, ${simS.toFixed(2)} s simulated${allSettled ? '' : ', NOT SETTLED'}`));

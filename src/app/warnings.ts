@@ -35,8 +35,8 @@ export function warningsFor(r: SolveResult, friction: number): Warning[] {
     });
   }
   for (const w of r.wheels) {
-    if (!w.lifted && w.loadShare < NEAR_LIFT_SHARE && r.status === 'converged') {
-      out.push({ level: 'warning', text: `${w.name} is close to lifting: ${Math.round(w.loadShare * 100)} % of its static load.` });
+    if (!w.lifted && (w.loadShare ?? 0) < NEAR_LIFT_SHARE && r.status === 'converged') {
+      out.push({ level: 'warning', text: `${w.name} is close to lifting: ${Math.round((w.loadShare ?? 0) * 100)} % of its static load.` });
     }
   }
   if (r.status === 'converged' && r.margins.forceAngleRad < NEAR_TIP_RAD) {
@@ -44,13 +44,13 @@ export function warningsFor(r: SolveResult, friction: number): Warning[] {
     out.push({ level: 'danger', text: `Close to tipping: force-angle margin ${deg(r.margins.forceAngleRad)}${edge ? ` about the ${edge} edge` : ''}.` });
   }
   for (const w of r.wheels) {
-    if (!w.lifted && w.frictionDemand > friction) {
-      out.push({ level: 'warning', text: `${w.name} needs grip ${w.frictionDemand.toFixed(2)}, more than the ground's ${friction.toFixed(2)}: it may slide.` });
+    if (!w.lifted && (w.frictionDemand ?? 0) > friction) {
+      out.push({ level: 'warning', text: `${w.name} needs grip ${(w.frictionDemand ?? 0).toFixed(2)}, more than the ground's ${friction.toFixed(2)}: it may slide.` });
     }
   }
   for (const w of r.wheels) {
-    if (w.travelFraction <= -0.999) out.push({ level: 'note', text: `${w.name} is at full droop.` });
-    else if (w.travelFraction >= 0.999) out.push({ level: 'note', text: `${w.name} is on its bump stop.` });
+    if ((w.travelFraction ?? 0) <= -0.999) out.push({ level: 'note', text: `${w.name} is at full droop.` });
+    else if ((w.travelFraction ?? 0) >= 0.999) out.push({ level: 'note', text: `${w.name} is on its bump stop.` });
   }
   return out;
 }

@@ -142,12 +142,9 @@ export function createPlumbStore(initial: Scenario, units: UnitSystem = initial.
     const t0 = now();
     const sameVehicle = prevScenario !== null && prevScenario.vehicle === s.vehicle;
     const model = modelFor(cache, s);
-    const warm = sameVehicle && prev && prev.status === 'converged' ? prev.state : null;
-    let result = solveEquilibrium(model, s.pose, { tilt: s.tilt, friction: s.friction, warmStart: warm });
-    // A warm start from a far state can end elsewhere; a cold start is the reference.
-    if (warm && result.status !== 'converged') {
-      result = solveEquilibrium(model, s.pose, { tilt: s.tilt, friction: s.friction });
-    }
+    // The warm start is only a speed-up: the solver returns the scenario's own answer either way.
+    const warm = sameVehicle && prev && prev.standing ? prev.state : null;
+    const result = solveEquilibrium(model, s.pose, { tilt: s.tilt, friction: s.friction, warmStart: warm });
     return { result, solveMs: now() - t0 };
   };
 
@@ -172,9 +169,8 @@ export function createPlumbStore(initial: Scenario, units: UnitSystem = initial.
   /** Another vehicle at the scenario pose (warm from prev when given and converged). */
   const solveOther = (v: Vehicle, s: Scenario, prev: SolveResult | null): { model: VehicleModel; result: SolveResult } => {
     const model = modelOf(v, s.terrain);
-    const warm = prev && prev.status === 'converged' ? prev.state : null;
-    let result = solveEquilibrium(model, s.pose, { tilt: s.tilt, friction: s.friction, warmStart: warm });
-    if (warm && result.status !== 'converged') result = solveEquilibrium(model, s.pose, { tilt: s.tilt, friction: s.friction });
+    const warm = prev && prev.standing ? prev.state : null;
+    const result = solveEquilibrium(model, s.pose, { tilt: s.tilt, friction: s.friction, warmStart: warm });
     return { model, result };
   };
   /** A build shown after a change of scenario: it follows the pose and terrain, and ends with a vehicle edit. */

@@ -34,7 +34,7 @@ export function LoadColumn({ index, heightPerQuarterM = 0.9, radiusM = 0.055 }: 
     const r = shownResult(s);
     const w = r.wheels[index];
     const quarter = r.weightN / 4;
-    const h = Math.max(0.02, (heightPerQuarterM * w.verticalLoadN) / quarter);
+    const h = Math.max(0.02, (heightPerQuarterM * (w.verticalLoadN ?? 0)) / quarter);
     g.visible = !w.lifted && r.status !== 'no-contact';
     const gd = r.gravityDirWorld;
     _up.set(-gd[0], -gd[1], -gd[2]);
@@ -48,7 +48,7 @@ export function LoadColumn({ index, heightPerQuarterM = 0.9, radiusM = 0.055 }: 
     shaft.current.scale.set(1, h, 1);
     shaft.current.position.set(0, headM + h / 2, 0);
     head.current.position.set(0, headM / 2, 0);
-    const share = w.staticLoadN > 0 ? w.verticalLoadN / w.staticLoadN : 0;
+    const share = w.staticLoadN > 0 ? (w.verticalLoadN ?? 0) / w.staticLoadN : 0;
     loadShareColor(share, material.current.color);
   });
   return (

@@ -18,7 +18,7 @@ export function WheelLabel({ index }: WheelLabelProps) {
   const units = usePlumb((s) => s.units);
   const w = usePlumb((s) => shownResult(s).wheels[index]);
   const name = WHEEL_NAMES[index];
-  const share = w.staticLoadN > 0 ? w.verticalLoadN / w.staticLoadN : 0;
+  const share = w.staticLoadN > 0 ? (w.verticalLoadN ?? 0) / w.staticLoadN : 0;
   return (
     <div
       ref={(el) => {
@@ -29,7 +29,7 @@ export function WheelLabel({ index }: WheelLabelProps) {
       data-lifted={w.lifted ? 'true' : 'false'}
     >
       <b>{name}</b> {w.lifted ? <strong className="lifted-word">LIFTED</strong> : null}{' '}
-      <span className="load-number">{scaleText(w.verticalLoadN, units)}</span>{' '}
+      <span className="load-number">{scaleText((w.verticalLoadN ?? 0), units)}</span>{' '}
       <span className="load-share">{percentText(share)} of static</span>
     </div>
   );

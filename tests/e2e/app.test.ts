@@ -186,7 +186,7 @@ describe('Plumbline web app (built, served on 127.0.0.1)', () => {
     expect(st.tiltDeg).toBeCloseTo(7.5, 12);
     expect(st.units).toBe('imperial');
     // Restored cold, solved warm before: equal to the solver tolerance (1e-8 × weight ≈ 2e-4 N), not bit for bit.
-    for (let i = 0; i < 4; i++) expect(Math.abs(st.loads[i] - loads[i])).toBeLessThan(0.01);
+    for (let i = 0; i < 4; i++) expect(Math.abs(st.loads[i]! - loads[i]!)).toBeLessThan(0.01);
     await expect(page.getByTestId('wheel-load-FL').textContent()).resolves.toMatch(/\d+ lb/);
   });
 });

@@ -55,7 +55,7 @@ describe('grid at the node limit', () => {
         `status ${r.status}, resident memory +${grownMb.toFixed(0)} MB (heap ${(mem1.heapUsed / 2 ** 20).toFixed(0)} MB)`,
     );
     expect(r.status).toBe('converged');
-    for (const w of r.wheels) expect(Number.isFinite(w.loadN) && w.loadN > 0).toBe(true);
+    for (const w of r.wheels) expect(Number.isFinite(w.loadN!) && w.loadN! > 0).toBe(true);
     // Bounds for "reasonable" on this 2-core machine (the heights alone are 32 MiB as Float64).
     expect(parseMs + solveMs).toBeLessThan(GRID_BUDGET_MS);
     expect(grownMb).toBeLessThan(1024);

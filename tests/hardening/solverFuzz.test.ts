@@ -7,11 +7,16 @@
  * same output bit for bit.
  *
  * Physical checks on converged results (Newton's first law, unilateral contact): loads ≥ 0, a
- * lifted wheel carries nothing, the ground's forces hold up the weight.
+ * lifted wheel carries nothing, the ground's forces hold up the weight. Second-order check: every
+ * result reported as standing is re-checked for stability with the stiffness differenced over the
+ * full equations (stabilityOf, exact: Lagrange–Dirichlet: a stable equilibrium has a positive
+ * definite tangent stiffness); an unstable root reported as standing is counted, and there must be none.
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { buildModel, solveEquilibrium } from '../../src/core/solver/equilibrium';
+import { createStabilityScratch, stabilityOf } from '../../src/core/solver/stability';
+import type { VehicleModel } from '../../src/core/solver/model';
 import type { Pose, SolveResult, Terrain, Tilt, Vehicle } from '../../src/core/model/types';
 import { BODY, rigidVehicle, testVehicle, independent } from '../helpers/vehicles';
 import { caseArb } from '../helpers/fuzzCases';
@@ -48,19 +53,27 @@ export function firstNonFinite(v: unknown, path = 'result'): string | null {
 function checkResult(r: SolveResult, wheelbaseM: number): string | null {
   const bad = firstNonFinite(r);
   if (bad) return `non-finite value at ${bad}`;
-  if (!['converged', 'tipped', 'no-contact', 'not-converged'].includes(r.status)) return `unknown status ${r.status}`;
+  if (!['converged', 'tipped', 'no-contact', 'not-converged', 'unstable'].includes(r.status)) return `unknown status ${r.status}`;
+  if (r.standing !== (r.status === 'converged')) return `standing ${r.standing} with status ${r.status}`;
   if (r.status !== 'converged') return r.reason.length > 0 ? null : `${r.status} without a reason`;
   const W = r.weightN;
   if (r.residualN > 1e-6 * W) return `force residual ${r.residualN} N over 1e-6·W`;
   if (r.residualNm > 1e-6 * W * wheelbaseM) return `moment residual ${r.residualNm} N·m over 1e-6·W·L`;
   let up = 0;
   for (const w of r.wheels) {
-    if (w.loadN < 0) return `${w.name} pulls on the ground (${w.loadN} N)`;
+    if (w.loadN! < 0) return `${w.name} pulls on the ground (${w.loadN!} N)`;
     if (w.lifted && w.loadN !== 0) return `${w.name} lifted but carries ${w.loadN} N`;
-    up += w.verticalLoadN;
+    up += w.verticalLoadN!;
   }
   if (Math.abs(up - W) > 1e-5 * W) return `ground forces hold ${up} N of ${W} N`;
   return null;
+}
+
+const scratch = createStabilityScratch();
+/** Whether a result reported as standing is an unstable root (checked again over the full equations). */
+function unstableButStanding(model: VehicleModel, r: SolveResult): boolean {
+  if (!r.standing) return false;
+  return !stabilityOf(model, r.state, scratch, { exact: true }).stable;
 }
 
 interface Tally {
@@ -70,13 +83,14 @@ interface Tally {
   'no-contact': number;
   'not-converged': number;
   unstable: number;
+  unstableStanding: number;
   nonFinite: number;
   failures: string[];
 }
 
 describe('solver over random valid inputs (hardening)', () => {
   it(`${RANDOM_CASES} random vehicles, terrains and poses: converged or a typed outcome, never NaN, same output twice`, () => {
-    const tally: Tally = { tried: 0, converged: 0, tipped: 0, 'no-contact': 0, 'not-converged': 0, unstable: 0, nonFinite: 0, failures: [] };
+    const tally: Tally = { tried: 0, converged: 0, tipped: 0, 'no-contact': 0, 'not-converged': 0, unstable: 0, unstableStanding: 0, nonFinite: 0, failures: [] };
     const samples = fc.sample(caseArb, { numRuns: RANDOM_CASES, seed: SEED });
     for (const c of samples) {
       const terrain: Terrain = { features: c.features };
@@ -85,6 +99,10 @@ describe('solver over random valid inputs (hardening)', () => {
       tally.tried++;
       tally[r.status]++;
       const problem = checkResult(r, c.vehicle.wheelbaseM);
+      if (unstableButStanding(model, r)) {
+        tally.unstableStanding++;
+        tally.failures.push(`unstable root reported as standing :: ${JSON.stringify(c)}`);
+      }
       if (problem) {
         if (problem.startsWith('non-finite')) tally.nonFinite++;
         tally.failures.push(`${problem} :: ${JSON.stringify(c)}`);
@@ -103,9 +121,11 @@ describe('solver over random valid inputs (hardening)', () => {
     }
     console.log(
       `solver fuzz: tried ${tally.tried}, converged ${tally.converged}, tipped ${tally.tipped}, no-contact ${tally['no-contact']}, ` +
-        `not-converged ${tally['not-converged']}, non-finite ${tally.nonFinite}, check failures ${tally.failures.length}`,
+        `not-converged ${tally['not-converged']}, unstable ${tally.unstable}, unstable reported as standing ${tally.unstableStanding}, ` +
+        `non-finite ${tally.nonFinite}, check failures ${tally.failures.length}`,
     );
     expect(tally.failures.slice(0, 5)).toEqual([]);
+    expect(tally.unstableStanding).toBe(0);
     expect(tally.tried).toBe(RANDOM_CASES);
   }, 600_000);
 });
@@ -160,6 +180,7 @@ describe('hard cases on purpose (hardening)', () => {
       const model = buildModel(c.vehicle, c.terrain);
       const r = solveEquilibrium(model, pose0, c.tilt ? { tilt: c.tilt } : {});
       expect(checkResult(r, c.vehicle.wheelbaseM)).toBeNull();
+      expect(unstableButStanding(model, r)).toBe(false);
       expect(c.expect ?? ['converged']).toContain(r.status);
       // Bit-identical on a second solve.
       const again = solveEquilibrium(model, pose0, c.tilt ? { tilt: c.tilt } : {});

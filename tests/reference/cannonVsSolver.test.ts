@@ -57,7 +57,7 @@ describe('quasi-static solver vs cannon-es settling reference', () => {
       expect(sol.weightN).toBeCloseTo(W, 3);
       for (let i = 0; i < 4; i++) {
         expect(sol.wheels[i].lifted).toBe(false);
-        expect(Math.abs(sol.wheels[i].loadN - ref.loadsN[i])).toBeLessThan(0.02 * W);
+        expect(Math.abs(sol.wheels[i].loadN! - ref.loadsN[i])).toBeLessThan(0.02 * W);
       }
     });
   }

@@ -23,7 +23,7 @@ function demoScenario(): Scenario {
 
 function coldLoads(s: Scenario): number[] {
   const r = solveEquilibrium(buildModel(s.vehicle, s.terrain), s.pose, { tilt: s.tilt, friction: s.friction });
-  return r.wheels.map((w) => w.verticalLoadN);
+  return r.wheels.map((w) => w.verticalLoadN!);
 }
 
 /** Solver tolerance 1e-8 of the weight (~22 kN): warm and cold solves agree to well under 0.01 N. */
@@ -41,7 +41,7 @@ describe('store', () => {
     const st = store.getState();
     expect(st.result.status).toBe('converged');
     const cold = coldLoads(s);
-    st.result.wheels.forEach((w, i) => expect(Math.abs(w.verticalLoadN - cold[i])).toBeLessThan(LOAD_EPS_N));
+    st.result.wheels.forEach((w, i) => expect(Math.abs(w.verticalLoadN! - cold[i])).toBeLessThan(LOAD_EPS_N));
   });
 
   it('setPose re-solves warm-started and matches a cold solve at the new pose', () => {
@@ -52,7 +52,7 @@ describe('store', () => {
     expect(st.result).not.toBe(before);
     expect(st.scenario.pose).toEqual({ xM: 0.8, yM: 0, headingRad: 0.3 });
     const cold = coldLoads(st.scenario);
-    st.result.wheels.forEach((w, i) => expect(Math.abs(w.verticalLoadN - cold[i])).toBeLessThan(LOAD_EPS_N));
+    st.result.wheels.forEach((w, i) => expect(Math.abs(w.verticalLoadN! - cold[i])).toBeLessThan(LOAD_EPS_N));
   });
 
   it('a no-op pose or tilt leaves the state object as it was (no re-render)', () => {
@@ -93,7 +93,7 @@ describe('store', () => {
     st().redo();
     expect(st().scenario.pose.xM).toBeCloseTo(0.5, 15);
     const cold = coldLoads(st().scenario);
-    st().result.wheels.forEach((w, i) => expect(Math.abs(w.verticalLoadN - cold[i])).toBeLessThan(LOAD_EPS_N));
+    st().result.wheels.forEach((w, i) => expect(Math.abs(w.verticalLoadN! - cold[i])).toBeLessThan(LOAD_EPS_N));
     // A new edit clears the redo list.
     st().undo();
     st().setPose({ yM: 0.2 });

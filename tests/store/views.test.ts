@@ -24,7 +24,7 @@ function scenarioOf(data: unknown): Scenario {
 
 function coldLoads(v: Vehicle, s: Scenario): number[] {
   const r = solveEquilibrium(buildModel(v, s.terrain), s.pose, { tilt: s.tilt, friction: s.friction });
-  return r.wheels.map((w) => w.verticalLoadN);
+  return r.wheels.map((w) => w.verticalLoadN!);
 }
 
 /** Solver tolerance 1e-8 of the weight: warm and cold solves agree to well under 0.01 N. */
@@ -92,10 +92,10 @@ describe('shown poses', () => {
     expect(st.ghost!.vehicle).toBe(b);
     const coldA = coldLoads(a, s);
     const coldB = coldLoads(b, s);
-    st.shown!.result.wheels.forEach((w, k) => expect(Math.abs(w.verticalLoadN - coldA[k])).toBeLessThan(LOAD_EPS_N));
-    st.ghost!.result.wheels.forEach((w, k) => expect(Math.abs(w.verticalLoadN - coldB[k])).toBeLessThan(LOAD_EPS_N));
+    st.shown!.result.wheels.forEach((w, k) => expect(Math.abs(w.verticalLoadN! - coldA[k])).toBeLessThan(LOAD_EPS_N));
+    st.ghost!.result.wheels.forEach((w, k) => expect(Math.abs(w.verticalLoadN! - coldB[k])).toBeLessThan(LOAD_EPS_N));
     // The builds differ from each other and from the vehicle as given.
-    expect(Math.abs(coldA[0] - coldB[0]) + Math.abs(coldA[0] - store.getState().result.wheels[0].verticalLoadN)).toBeGreaterThan(1);
+    expect(Math.abs(coldA[0] - coldB[0]) + Math.abs(coldA[0] - store.getState().result.wheels[0].verticalLoadN!)).toBeGreaterThan(1);
 
     store.getState().setPose({ xM: 1.2, headingRad: 0.2 });
     st = store.getState();
@@ -103,8 +103,8 @@ describe('shown poses', () => {
     expect(st.ghost!.pose).toEqual(st.scenario.pose);
     const movedA = coldLoads(a, st.scenario);
     const movedB = coldLoads(b, st.scenario);
-    st.shown!.result.wheels.forEach((w, k) => expect(Math.abs(w.verticalLoadN - movedA[k])).toBeLessThan(LOAD_EPS_N));
-    st.ghost!.result.wheels.forEach((w, k) => expect(Math.abs(w.verticalLoadN - movedB[k])).toBeLessThan(LOAD_EPS_N));
+    st.shown!.result.wheels.forEach((w, k) => expect(Math.abs(w.verticalLoadN! - movedA[k])).toBeLessThan(LOAD_EPS_N));
+    st.ghost!.result.wheels.forEach((w, k) => expect(Math.abs(w.verticalLoadN! - movedB[k])).toBeLessThan(LOAD_EPS_N));
 
     store.getState().replaceScenario({ ...st.scenario, vehicle: { ...st.scenario.vehicle, massKg: st.scenario.vehicle.massKg + 50 } });
     expect(store.getState().shown).toBeNull();

@@ -15,7 +15,7 @@ export function LoadsPanel() {
   const friction = usePlumb((s) => s.scenario.friction);
   const warnings = useMemo(() => warningsFor(r, friction), [r, friction]);
   let sum = 0;
-  for (const w of r.wheels) sum += w.verticalLoadN;
+  for (const w of r.wheels) sum += (w.verticalLoadN ?? 0);
   return (
     <section className="panel" aria-labelledby="loads-h">
       <h2 id="loads-h">Tyre loads</h2>
@@ -42,17 +42,17 @@ export function LoadsPanel() {
         </thead>
         <tbody>
           {r.wheels.map((w) => {
-            const share = w.staticLoadN > 0 ? w.verticalLoadN / w.staticLoadN : 0;
+            const share = w.staticLoadN > 0 ? (w.verticalLoadN ?? 0) / w.staticLoadN : 0;
             return (
               <tr key={w.name} className={w.lifted ? 'lifted' : undefined} data-testid={`table-load-${w.name}`}>
                 <th scope="row">
                   <span className="swatch" style={{ background: viridisCss(share / 2) }} aria-hidden="true" /> {w.name}
                 </th>
-                <td>{w.lifted ? <strong>LIFTED</strong> : scaleText(w.verticalLoadN, units)}</td>
-                <td>{forceText(w.loadN, units)}</td>
+                <td>{w.lifted ? <strong>LIFTED</strong> : scaleText((w.verticalLoadN ?? 0), units)}</td>
+                <td>{forceText((w.loadN ?? 0), units)}</td>
                 <td>{percentText(share)}</td>
                 <td>
-                  {travelText(w.travelM, units)} <small>({Math.round(w.travelFraction * 100)} %)</small>
+                  {travelText((w.travelM ?? 0), units)} <small>({Math.round((w.travelFraction ?? 0) * 100)} %)</small>
                 </td>
               </tr>
             );

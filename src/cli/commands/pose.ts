@@ -27,7 +27,10 @@ export function poseJson(r: SolveResult): object {
   }
   return {
     status: r.status,
+    standing: r.standing,
     reason: r.reason,
+    // Where it does not stand: the support edge it goes over (wheels), when the solver saw one.
+    tip: r.standing ? null : { edge: r.margins.weakestEdgeWheels },
     iterations: r.iterations,
     evaluations: r.evaluations,
     residualN: r.residualN,
@@ -73,43 +76,58 @@ export const poseCommand: CommandSpec = {
     else {
       const u = displayUnits(s.units);
       io.out(`${s.name}: ${s.vehicle.name}`);
-      io.out(
-        formatTable(
-          [
-            { header: 'wheel' },
-            { header: 'load', unit: u.force, digits: 0 },
-            { header: 'of static', unit: '%', digits: 0 },
-            { header: 'travel', unit: u.length, digits: 3 },
-            { header: 'travel used', unit: '%', digits: 0 },
-            { header: 'grip needed', unit: 'μ', digits: 2 },
-            { header: 'state' },
-          ],
-          r.wheels.map((w) => [
-            w.name,
-            u.forceOf(w.loadN),
-            100 * w.loadShare,
-            u.lengthOf(w.travelM),
-            100 * w.travelFraction,
-            w.frictionDemand,
-            w.lifted ? 'LIFTED' : w.frictionDemand > s.friction ? 'SLIDES' : w.loadShare < 0.25 ? 'light' : '',
-          ]),
-        ),
-      );
+      if (!r.standing) {
+        // No load table: the numbers of a pose that does not stand belong to no equilibrium.
+        const edge = r.margins.weakestEdgeWheels.length > 0 ? `, over the ${r.margins.weakestEdgeWheels.join('–')} edge` : '';
+        io.out(`goes over: this pose does not stand (${r.status}${edge}: ${r.reason})`);
+      } else {
+        io.out(
+          formatTable(
+            [
+              { header: 'wheel' },
+              { header: 'load', unit: u.force, digits: 0 },
+              { header: 'of static', unit: '%', digits: 0 },
+              { header: 'travel', unit: u.length, digits: 3 },
+              { header: 'travel used', unit: '%', digits: 0 },
+              { header: 'grip needed', unit: 'μ', digits: 2 },
+              { header: 'state' },
+            ],
+            r.wheels.map((w) => {
+              const demand = w.frictionDemand ?? 0;
+              const share = w.loadShare ?? 0;
+              return [
+                w.name,
+                u.forceOf(w.loadN ?? 0),
+                100 * share,
+                u.lengthOf(w.travelM ?? 0),
+                100 * (w.travelFraction ?? 0),
+                demand,
+                w.lifted ? 'LIFTED' : demand > s.friction ? 'SLIDES' : share < 0.25 ? 'light' : '',
+              ];
+            }),
+          ),
+        );
+      }
       io.out('');
       io.out(
         formatKeyValues([
           ['status', `${r.status} (${r.reason})`],
           ['weight', `${u.forceOf(r.weightN).toFixed(0)} ${u.force}`],
-          ['body roll / pitch to level', `${radToDegRounded(r.body.rollToLevelRad, 2)}° / ${radToDegRounded(r.body.pitchToLevelRad, 2)}°`],
-          ['force-angle margin', `${radToDegRounded(r.margins.forceAngleRad, 2)}° (weakest edge ${r.margins.weakestEdgeWheels.join('–') || 'none'})`],
-          ['energy margin', `${u.lengthOf(r.margins.energyM).toFixed(3)} ${u.length}`],
-          ['static margin', `${u.lengthOf(r.margins.staticM).toFixed(3)} ${u.length}`],
+          // Attitude and margins only of a pose that stands (elsewhere they describe no equilibrium).
+          ...(r.standing
+            ? ([
+                ['body roll / pitch to level', `${radToDegRounded(r.body.rollToLevelRad, 2)}° / ${radToDegRounded(r.body.pitchToLevelRad, 2)}°`],
+                ['force-angle margin', `${radToDegRounded(r.margins.forceAngleRad, 2)}° (weakest edge ${r.margins.weakestEdgeWheels.join('–') || 'none'})`],
+                ['energy margin', `${u.lengthOf(r.margins.energyM).toFixed(3)} ${u.length}`],
+                ['static margin', `${u.lengthOf(r.margins.staticM).toFixed(3)} ${u.length}`],
+              ] as [string, string][])
+            : []),
         ]),
       );
       io.out('');
       io.out('Caution: a quasi-static estimate on rigid ground. Real margins are smaller; follow the maker\'s limits, local rules and trained practice.');
     }
-    if (r.status !== 'converged') {
+    if (!r.standing) {
       io.err(`plumbline: the vehicle does not stand at this pose: ${r.status} (${r.reason})`);
       return EXIT_FAILURE;
     }

@@ -17,7 +17,7 @@ import { DEFAULT_CLEARANCE_GRID, UNDERBODY_PARTS, UnderbodySampler, type Clearan
 export const DEFAULT_LIGHT_SHARE = 0.25;
 /** Travel fraction counted as at the stop: |fraction| ≥ 1 − this (the stops are stiff, not rigid). */
 export const STOP_FRACTION_TOLERANCE = 1e-3;
-/** A station that fails is retried with this many times the iteration cap (warm, then cold) before it counts as a tip. */
+/** A station that fails is retried with this many times the iteration cap before it counts as a tip. */
 const RETRY_ITERATION_FACTOR = 4;
 /** Largest residual, as a share of the weight, for a station kept as approximate (see nearlyStanding). */
 export const APPROXIMATE_RESIDUAL_SHARE = 1e-3;
@@ -142,8 +142,8 @@ function nearlyStanding(r: SolveResult, wheelbaseM: number): boolean {
 /**
  * Runs the pass. The vehicle's reference point (ground, midway between the axles) moves from
  * path.fromM to path.toM; its heading is path.headingRad or, when null, along the path.
- * At each station the solve is warm-started from the last; if that fails it is retried with a
- * higher iteration cap, warm and then from the ride-height guess, before the station counts as a tip. Allocates the per-station results only.
+ * At each station the solve is warm-started from the last (a speed-up: the solver returns the
+ * station's own answer); if that fails it is retried with a higher iteration cap before the station counts as a tip. Allocates the per-station results only.
  */
 export function runPass(model: VehicleModel, path: PathSpec, opts: PassOptions = {}): PassResult {
   const friction = opts.friction ?? DEFAULT_FRICTION;
@@ -193,15 +193,12 @@ export function runPass(model: VehicleModel, path: PathSpec, opts: PassOptions =
     let r = solveEquilibrium(model, pose, solveOpts);
     evaluations += r.evaluations;
     if (!standing(r)) {
-      // Hard poses (a tyre on a ledge face) can need more Newton steps; then try from the ride-height guess.
+      // Hard poses (a tyre on a ledge face) can need more Newton steps (the solver itself falls back
+      // from the warm start to its reference start).
       solveOpts.maxIterations = retryIterations;
-      for (let attempt = 0; attempt < 2 && !standing(r); attempt++) {
-        solveOpts.warmStart = attempt === 0 ? warm : null;
-        if (attempt === 0 && warm === null) continue;
-        const again = solveEquilibrium(model, pose, solveOpts);
-        evaluations += again.evaluations;
-        if (standing(again)) r = again;
-      }
+      const again = solveEquilibrium(model, pose, solveOpts);
+      evaluations += again.evaluations;
+      if (standing(again)) r = again;
       solveOpts.maxIterations = opts.maxIterations;
     }
     const approximate = !standing(r) && nearlyStanding(r, model.wheelbaseM);
@@ -256,11 +253,11 @@ export function runPass(model: VehicleModel, path: PathSpec, opts: PassOptions =
       for (let e = 0; e < WHEEL_KINDS.length; e++) {
         let on: boolean;
         switch (e) {
-          case K_LIGHT: on = wk.lifted || wk.loadShare < lightShare; break;
+          case K_LIGHT: on = wk.lifted || (wk.loadShare ?? 0) < lightShare; break;
           case K_LIFT: on = wk.lifted; break;
-          case K_BUMP: on = wk.travelFraction >= 1 - STOP_FRACTION_TOLERANCE; break;
-          case K_DROOP: on = wk.travelFraction <= -1 + STOP_FRACTION_TOLERANCE; break;
-          case K_FRICTION: on = !wk.lifted && wk.frictionDemand > friction; break;
+          case K_BUMP: on = (wk.travelFraction ?? 0) >= 1 - STOP_FRACTION_TOLERANCE; break;
+          case K_DROOP: on = (wk.travelFraction ?? 0) <= -1 + STOP_FRACTION_TOLERANCE; break;
+          case K_FRICTION: on = !wk.lifted && (wk.frictionDemand ?? 0) > friction; break;
           default: on = false;
         }
         const slot = e * 4 + k;
@@ -300,7 +297,7 @@ export function runPass(model: VehicleModel, path: PathSpec, opts: PassOptions =
 }
 
 function passWheel(w: WheelResult): PassWheel {
-  return { loadN: w.loadN, loadShare: w.loadShare, travelFraction: w.travelFraction, lifted: w.lifted, frictionDemand: w.frictionDemand };
+  return { loadN: (w.loadN ?? 0), loadShare: (w.loadShare ?? 0), travelFraction: (w.travelFraction ?? 0), lifted: w.lifted, frictionDemand: (w.frictionDemand ?? 0) };
 }
 
 function kindOrder(k: PassEventKind): number {

@@ -229,8 +229,18 @@ export interface SolveOptions {
   readonly maxIterations?: number;
   /** Bound on the scaled residual (forces / weight, moments / (weight · wheelbase)). @default 1e-7 (ten times inside the 1e-6·W bound the results promise) */
   readonly tolerance?: number;
-  /** Start from this state (from a previous result's `state`) instead of the ride-height guess. */
+  /**
+   * A previous result's `state`: a speed-up only. The answer stays the scenario's own (the stable
+   * equilibrium from the reference start); a warm landing that cannot be shown to be it is solved
+   * again from the reference start.
+   */
   readonly warmStart?: Float64Array | null;
+  /**
+   * The caller follows a path of its own from the warm start (a tilt sweep raising the table step by
+   * step): accept the root the warm start leads to, checked for stability, without the reference
+   * test. @default false
+   */
+  readonly followBranch?: boolean;
   /**
    * Only the fast iteration: no fallback to the full-equation Jacobian, no eased cold start. For
    * searches that bracket an event from a close warm start, where a miss is cheap to take.
@@ -242,11 +252,11 @@ export interface SolveOptions {
 export interface WheelResult {
   readonly name: WheelName;
   /** Normal load: the tyre's radial resultant, along the contact normal (N). 0 when lifted. */
-  readonly loadN: number;
+  readonly loadN: number | null;
   /** Total ground force (normal + tangential) along the gravity up direction: what a scale under the tyre reads (N). */
-  readonly verticalLoadN: number;
+  readonly verticalLoadN: number | null;
   /** loadN / the wheel's load standing on level ground (1 = unchanged). */
-  readonly loadShare: number;
+  readonly loadShare: number | null;
   /** The wheel's load standing on level ground, untilted (N). */
   readonly staticLoadN: number;
   readonly lifted: boolean;
@@ -259,15 +269,15 @@ export interface WheelResult {
   /** Tyre axis (unit, pointing to the vehicle's left), terrain frame. */
   readonly axisWorld: readonly [number, number, number];
   /** Suspension travel from ride height, positive in bump (m). */
-  readonly travelM: number;
+  readonly travelM: number | null;
   /** Travel as a fraction of what is available that way: +1 full bump, −1 full droop (can pass ±1 into the stops). */
-  readonly travelFraction: number;
+  readonly travelFraction: number | null;
   /** Mean tyre deflection along the normal, load-weighted (m). */
-  readonly tyreDeflectionM: number;
+  readonly tyreDeflectionM: number | null;
   /** Tangential (grip) force at the contact (N). */
-  readonly tangentialN: number;
+  readonly tangentialN: number | null;
   /** tangentialN / loadN: the friction coefficient this wheel needs (0 when lifted). */
-  readonly frictionDemand: number;
+  readonly frictionDemand: number | null;
 }
 
 export interface StabilityMargins {
@@ -299,12 +309,19 @@ export interface BodyResult {
   readonly pitchToLevelRad: number;
   /** Total CG (vehicle + payload + unsprung at the wheels), terrain frame (m). */
   readonly cgWorld: readonly [number, number, number];
-  /** Point where the plumb line from the CG meets the plane of the support polygon, terrain frame (m). */
+  /** Point where the plumb line from the CG meets the ground, terrain frame (m). */
   readonly plumbPointWorld: readonly [number, number, number];
 }
 
 export interface SolveResult {
   readonly status: SolveStatus;
+  /** The vehicle stands here: a converged, stable equilibrium (status 'converged'). Nothing else is ever shown as standing. */
+  readonly standing: boolean;
+  /**
+   * Smallest eigenvalue of the tangent stiffness of the configuration (per W·L, dimensionless), where
+   * the forces balance (converged or unstable); null otherwise. Positive: stable; it falls to zero at a fold.
+   */
+  readonly stiffnessMinEigen: number | null;
   /** Why it ended as it did, in words. */
   readonly reason: string;
   readonly iterations: number;

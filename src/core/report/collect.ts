@@ -132,13 +132,9 @@ export function collectReport(s: Scenario, opts: ReportOptions = {}): ReportData
     const found = keyStationOf(pass);
     if (found) {
       const key = found.station;
-      // Re-solved from the station before it, as the pass reached it (warm start along the path).
-      const prev = pass.stations[Math.max(0, key.index - 1)];
-      const o = passOptionsOf(s);
-      const warm = solveEquilibrium(model, prev.pose, o);
-      let r = solveEquilibrium(model, key.pose, { ...o, warmStart: warm.status === 'converged' ? warm.state : null });
-      if (r.status !== 'converged') r = solveEquilibrium(model, key.pose, o);
-      if (r.status === 'converged') {
+      // The station's pose solved as a scenario of its own (the solver's one answer for it).
+      const r = solveEquilibrium(model, key.pose, passOptionsOf(s));
+      if (r.standing) {
         drawing = { pose: key.pose, result: r, why: `pass station ${key.index} (${key.distanceM.toFixed(2)} m along the path): ${found.why}`, station: key };
       }
     }

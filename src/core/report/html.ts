@@ -256,7 +256,7 @@ function summarySection(d: ReportData, u: ReportUnits, meta: ReportMeta): string
   if (pose.status === 'converged') {
     pairs.push([
       'Tyre loads at the scenario pose',
-      pose.wheels.map((w) => `${w.name} ${fixed(u.forceOf(w.loadN), 0)} ${u.force}${w.lifted ? ' (lifted)' : ''}`).join(', '),
+      pose.wheels.map((w) => `${w.name} ${fixed(u.forceOf((w.loadN ?? 0)), 0)} ${u.force}${w.lifted ? ' (lifted)' : ''}`).join(', '),
     ]);
     pairs.push(['Force-angle margin at the pose', `${degRounded(pose.margins.forceAngleRad, 2)}° (weakest edge ${pose.margins.weakestEdgeWheels.join('–') || 'none'})`]);
     pairs.push(['Energy margin at the pose', len(u, pose.margins.energyM)]);
@@ -407,10 +407,10 @@ function drawingSection(d: ReportData, u: ReportUnits): string {
   });
   const rows = r.wheels.map((w) => [
     w.name,
-    fixed(u.forceOf(w.loadN), 0),
-    fixed(100 * w.loadShare, 0),
-    mm(u, w.travelM),
-    fixed(100 * w.travelFraction, 0),
+    fixed(u.forceOf((w.loadN ?? 0)), 0),
+    fixed(100 * (w.loadShare ?? 0), 0),
+    mm(u, (w.travelM ?? 0)),
+    fixed(100 * (w.travelFraction ?? 0), 0),
     w.lifted ? 'lifted' : '',
   ]);
   return (

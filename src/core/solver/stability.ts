@@ -16,10 +16,11 @@
  *    the normal loads, as in the equations.
  *  - K = −∂G/∂q, with G the generalised forces conjugate to those coordinates (the vertical force,
  *    the moments about the roll and pitch axes of the rotation, the suspension equations), from
- *    forward differences: first over the tyres' linearisation at the state (no ray casts beyond
+ *    central differences: first over the tyres' linearisation at the state (no ray casts beyond
  *    one full evaluation); when that puts the smallest eigenvalue near zero (below EXACT_BELOW),
- *    again over the full equations (seven ray casts), since the linearisation freezes the contact
- *    geometry and can misjudge the sign near a fold.
+ *    again over the full equations (fourteen ray casts, or twenty-eight where the first verdict is
+ *    unstable: see exactCheck), since the linearisation freezes the contact geometry and can
+ *    misjudge the sign near a fold.
  *  - Coordinates are made dimensionless (lengths divided by the wheelbase L) and forces scaled by
  *    the weight W, so K is in units of W·L per unit of coordinate²; the grip held fixed makes K
  *    slightly non-symmetric, so its symmetric part (K + Kᵀ)/2 is taken (the part that does work
@@ -37,8 +38,14 @@ import { Q_PITCH, Q_ROLL, Q_SUSP, R_SUSP, STATE_SIZE, type VehicleModel } from '
 export const CONFIG_SIZE = 7;
 /** Relative tolerance on the smallest eigenvalue (see the module comment). */
 export const STABILITY_REL_TOL = 1e-7;
-/** Finite-difference step on the state (m or rad). */
+/** Finite-difference step on the state (m or rad), over the tyres' linearisation. */
 const STIFFNESS_FD_STEP = 1e-7;
+/**
+ * The same over the full equations: longer, since the ray searches and terrain edges make the full
+ * forces rough at the 1e-7 scale (a rigid vehicle balanced on two wheels gives the same smallest
+ * eigenvalue to 0.1 % from 1e-8 to 1e-6).
+ */
+const EXACT_FD_STEP = 1e-6;
 /** Jacobi sweeps: 7×7 converges in well under ten. */
 const JACOBI_MAX_SWEEPS = 30;
 
@@ -172,12 +179,14 @@ export interface StabilityOptions {
   /** Evaluate the full equations at the state first. Pass false only right after a solve of that state. @default true */
   readonly fresh?: boolean;
   /**
-   * Differences over the full equations (seven more ray casts) instead of over the tyres'
+   * Differences over the full equations (fourteen more ray casts) instead of over the tyres'
    * linearisation. 'auto' (the default): the cheap differences first, the full ones when the cheap
    * smallest eigenvalue is below EXACT_BELOW (near a fold the linearisation, which freezes the
    * contact geometry, is not accurate enough to decide the sign).
    */
   readonly exact?: boolean | 'auto';
+  /** Finite-difference step on the state (m or rad). @default 1e-7 */
+  readonly step?: number;
 }
 
 /**
@@ -206,28 +215,51 @@ export interface Stability {
 export function stabilityOf(model: VehicleModel, state: Float64Array, scratch: StabilityScratch, options: StabilityOptions = {}): Stability {
   const mode = options.exact ?? 'auto';
   if (options.fresh ?? true) model.residual(state, true, scratch.res);
-  if (mode === true) return check(model, state, scratch, true);
-  const cheap = check(model, state, scratch, false);
+  if (mode === true) return exactCheck(model, state, scratch, options.step);
+  const cheap = check(model, state, scratch, false, options.step ?? STIFFNESS_FD_STEP);
   if (mode === false || !(cheap.minEigen < EXACT_BELOW)) return cheap;
-  return check(model, state, scratch, true);
+  return exactCheck(model, state, scratch, options.step);
 }
 
-function check(model: VehicleModel, state: Float64Array, scratch: StabilityScratch, full: boolean): Stability {
+/**
+ * Differences over the full equations. Where a tyre sits on a sharp terrain edge the contact force
+ * has a kink there, and a difference across it reads as a stiffness of the order of the force jump
+ * over the step: an artefact that shrinks as the step grows, where a real negative stiffness does
+ * not. So a first verdict of unstable is tried again with a step ten times longer, and the larger
+ * smallest eigenvalue is kept. (A given step is used as it is.)
+ */
+function exactCheck(model: VehicleModel, state: Float64Array, scratch: StabilityScratch, step: number | undefined): Stability {
+  if (step !== undefined) return check(model, state, scratch, true, step);
+  const a = check(model, state, scratch, true, EXACT_FD_STEP);
+  if (a.stable) return a;
+  const b = check(model, state, scratch, true, 10 * EXACT_FD_STEP);
+  if (!(b.minEigen > a.minEigen)) {
+    model.residual(state, true, scratch.res);
+    return a;
+  }
+  return b;
+}
+
+function check(model: VehicleModel, state: Float64Array, scratch: StabilityScratch, full: boolean, h: number): Stability {
   const n = CONFIG_SIZE;
   const q = scratch.q;
   q.set(state);
   const res = scratch.res;
-  model.residual(q, false, res);
-  generalisedForces(model, res, scratch.g0);
   const K = scratch.K;
   for (let j = 0; j < n; j++) {
     const k = stateIndex(j);
     const keep = q[k];
-    q[k] = keep + STIFFNESS_FD_STEP;
+    // Central differences: where a stop or a contact engages exactly at the state (a corner with no
+    // droop travel at ride height) the stiffness has a kink, and a one-sided difference would see
+    // the stop for one coordinate and not for another, which no potential gives.
+    q[k] = keep + h;
     model.residual(q, full, res);
     generalisedForces(model, res, scratch.g1);
+    q[k] = keep - h;
+    model.residual(q, full, res);
+    generalisedForces(model, res, scratch.g0);
     q[k] = keep;
-    const scale = coordinateLength(model, k) / STIFFNESS_FD_STEP;
+    const scale = coordinateLength(model, k) / (2 * h);
     for (let i = 0; i < n; i++) K[i * n + j] = -(scratch.g1[i] - scratch.g0[i]) * scale;
   }
   // Leave the buffers at the state itself (the full differences re-cast the tyres elsewhere).

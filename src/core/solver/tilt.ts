@@ -29,7 +29,6 @@ import type { Pose, SolveResult, TiltSample, TiltSweepOptions, TiltSweepResult, 
 import { WHEEL_NAMES } from '../model/types';
 import { DEFAULT_FRICTION, solveEquilibrium } from './equilibrium';
 import { Q_PITCH, Q_ROLL, STATE_SIZE, type VehicleModel } from './model';
-import { createStabilityScratch, stabilityOf, type StabilityScratch } from './stability';
 
 const DEG = Math.PI / 180;
 /** Largest Newton iterations of a continuation step (a warm start on the branch needs 2–5). */
@@ -125,7 +124,7 @@ export interface TiltSweepDetail extends TiltSweepResult {
 
 function maxDemand(r: SolveResult): number {
   let d = 0;
-  for (const w of r.wheels) if (!w.lifted && w.frictionDemand > d) d = w.frictionDemand;
+  for (const w of r.wheels) if (!w.lifted && (w.frictionDemand ?? 0) > d) d = (w.frictionDemand ?? 0);
   return d;
 }
 
@@ -136,7 +135,7 @@ function anyLifted(r: SolveResult): boolean {
 /** The lightest load among the wheels still down (N): falls to zero as the first wheel lifts. */
 function lightestLoad(r: SolveResult): number {
   let m = Infinity;
-  for (const w of r.wheels) if (!w.lifted && w.loadN < m) m = w.loadN;
+  for (const w of r.wheels) if (!w.lifted && (w.loadN ?? 0) < m) m = (w.loadN ?? 0);
   return m;
 }
 
@@ -145,7 +144,7 @@ export function toSample(angleRad: number, r: SolveResult): TiltSample {
   return {
     angleRad,
     status: r.status,
-    loadsN: [w[0].loadN, w[1].loadN, w[2].loadN, w[3].loadN],
+    loadsN: [(w[0].loadN ?? 0), (w[1].loadN ?? 0), (w[2].loadN ?? 0), (w[3].loadN ?? 0)],
     lifted: [w[0].lifted, w[1].lifted, w[2].lifted, w[3].lifted],
     forceAngleRad: r.margins.forceAngleRad,
     energyM: r.margins.energyM,
@@ -181,7 +180,6 @@ interface BranchPoint {
   readonly minEigen: number;
 }
 
-let _scratch: StabilityScratch | null = null;
 const _pred = new Float64Array(STATE_SIZE);
 
 /**
@@ -196,25 +194,25 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
   const resolution = opts.resolutionRad ?? 0.01 * DEG;
   const friction = opts.friction ?? DEFAULT_FRICTION;
   const downhillRad = opts.downhillRad;
-  const scratch = (_scratch ??= createStabilityScratch());
   let evaluations = 0;
 
   const solveAt = (angleRad: number, warm: Float64Array | null, quick = false, maxIterations?: number): SolveResult => {
-    const r = solveEquilibrium(model, pose, { tilt: { angleRad, downhillRad }, friction, warmStart: warm, maxIterations, quick });
+    // followBranch: the sweep follows its own branch from the state it passes (the solver checks
+    // each root's stability and reports its smallest stiffness eigenvalue).
+    const r = solveEquilibrium(model, pose, { tilt: { angleRad, downhillRad }, friction, warmStart: warm, followBranch: warm !== null, maxIterations, quick });
     evaluations += r.evaluations;
     return r;
   };
-  /** Smallest stiffness eigenvalue at r (the model is still set up for r's solve). */
+  /** Smallest stiffness eigenvalue of a balance (from the solver's own check; −∞ where it has none). */
   const minEigenOf = (r: SolveResult): number => {
-    const before = model.fullEvaluations;
-    const s = stabilityOf(model, r.state, scratch, { fresh: true });
-    evaluations += model.fullEvaluations - before;
-    return s.stable ? Math.max(s.minEigen, 0) : Number.isNaN(s.minEigen) ? -Infinity : Math.min(s.minEigen, -1e-12);
+    const e = r.stiffnessMinEigen;
+    if (e === null || Number.isNaN(e)) return -Infinity;
+    return r.status === 'unstable' ? Math.min(e, -1e-12) : e;
   };
   type Verdict = 'ok' | 'failed' | 'unstable' | 'outside' | 'off-branch';
   /** Whether r at angle continues the branch from prev (null: the start). */
   const judge = (angle: number, r: SolveResult, prev: BranchPoint | null): { verdict: Verdict; minEigen: number } => {
-    if (r.status !== 'converged') return { verdict: 'failed', minEigen: NaN };
+    if (r.status !== 'converged' && r.status !== 'unstable') return { verdict: 'failed', minEigen: NaN };
     if (prev) {
       const limit = BRANCH_TURN_RAD + 2 * Math.abs(angle - prev.angle);
       if (Math.abs(r.state[Q_ROLL] - prev.r.state[Q_ROLL]) > limit || Math.abs(r.state[Q_PITCH] - prev.r.state[Q_PITCH]) > limit) {
@@ -305,11 +303,11 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
     let best = -1;
     for (let i = 0; i < 4; i++) {
       if (!hiRes.wheels[i].lifted || loRes.wheels[i].lifted) continue;
-      if (best < 0 || loRes.wheels[i].loadN < loRes.wheels[best].loadN) best = i;
+      if (best < 0 || (loRes.wheels[i].loadN ?? 0) < (loRes.wheels[best].loadN ?? 0)) best = i;
     }
     if (best < 0) {
       best = 0;
-      for (let i = 1; i < 4; i++) if (loRes.wheels[i].loadN < loRes.wheels[best].loadN) best = i;
+      for (let i = 1; i < 4; i++) if ((loRes.wheels[i].loadN ?? 0) < (loRes.wheels[best].loadN ?? 0)) best = i;
     }
     return WHEEL_NAMES[best];
   };

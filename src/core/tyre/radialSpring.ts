@@ -377,16 +377,21 @@ export function evaluateTyre(
           Nm[3 * k + 2] = 0;
           continue;
         }
-        // The gap along the ray down to the level of the highest ground (exact for level ground).
-        const down = ez < -GRAZING_MIN ? ez : -GRAZING_MIN;
-        D[k] = (tipZ - groundMax) / down;
-        G[3 * k + 2] = 1 / down;
+        // The gap along the ray down to the bound plane (exact for a plane), with that plane's
+        // normal m = (−bgx, −bgy, 1): d = (tip − ground) / (m·e), ∂d/∂c = m / (m·e).
+        const mn = Math.sqrt(bgx * bgx + bgy * bgy + 1);
+        let me = -bgx * E[3 * k] - bgy * E[3 * k + 1] + ez;
+        if (me > -GRAZING_MIN * mn) me = -GRAZING_MIN * mn;
+        D[k] = (tipZ - groundMax) / me;
+        G[3 * k] = -bgx / me;
+        G[3 * k + 1] = -bgy / me;
+        G[3 * k + 2] = 1 / me;
         Hp[3 * k] = sx + R * E[3 * k];
         Hp[3 * k + 1] = sy + R * E[3 * k + 1];
         Hp[3 * k + 2] = tipZ;
-        Nm[3 * k] = 0;
-        Nm[3 * k + 1] = 0;
-        Nm[3 * k + 2] = 1;
+        Nm[3 * k] = -bgx / mn;
+        Nm[3 * k + 1] = -bgy / mn;
+        Nm[3 * k + 2] = 1 / mn;
         continue;
       }
       const ex = E[3 * k];

@@ -22,7 +22,7 @@ function firstLiftOnBlock(v: Vehicle): { wheel: WheelName; heightM: number; frLo
     expect(r.status, `block ${h.toFixed(2)} m`).toBe('converged');
     warm = r.state;
     const lifted = r.wheels.filter((w, i) => i !== 0 && w.lifted);
-    if (lifted.length > 0) return { wheel: lifted[0].name, heightM: h, frLoadN: r.wheels[1].loadN };
+    if (lifted.length > 0) return { wheel: lifted[0].name, heightM: h, frLoadN: r.wheels[1].loadN! };
   }
   throw new Error('no wheel lifted');
 }

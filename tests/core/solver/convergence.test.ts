@@ -125,13 +125,14 @@ describe('solveEquilibrium converges where an equilibrium exists', () => {
       const r = solveEquilibrium(model, c.pose, c.options);
       const ref = referenceNewton(model, c.pose, c.options ?? {}, r.state);
       expect(ref, 'the reference Newton should find the equilibrium (else the case proves nothing)').not.toBeNull();
-      const check = solveEquilibrium(model, c.pose, { ...c.options, warmStart: ref, maxIterations: 0 });
+      // followBranch: evaluate that state as it is (no reference re-solve, which a cap of 0 iterations would fail).
+      const check = solveEquilibrium(model, c.pose, { ...c.options, warmStart: ref, maxIterations: 0, followBranch: true });
       expect(check.status).toBe('converged');
       expect(check.margins.forceAngleRad).toBeGreaterThan(0);
-      const loads = check.wheels.map((w) => w.loadN.toFixed(0)).join(', ');
-      const got = r.wheels.map((w) => w.loadN.toFixed(0)).join(', ');
+      const loads = check.wheels.map((w) => w.loadN!.toFixed(0)).join(', ');
+      const got = r.wheels.map((w) => w.loadN!.toFixed(0)).join(', ');
       expect(r.status, `${r.reason}; equilibrium loads ${loads} N, solver stopped at ${got} N`).toBe('converged');
-      for (let i = 0; i < 4; i++) expect(Math.abs(r.wheels[i].loadN - check.wheels[i].loadN)).toBeLessThan(1e-6 * r.weightN);
+      for (let i = 0; i < 4; i++) expect(Math.abs(r.wheels[i].loadN! - check.wheels[i].loadN!)).toBeLessThan(1e-6 * r.weightN);
     });
   }
 });

@@ -38,8 +38,8 @@ describe('grade loads, facing uphill (Gillespie ch. 2)', () => {
       const r = solveEquilibrium(model, POSE, { tilt: { angleRad: th, downhillRad: Math.PI } });
       expect(r.status).toBe('converged');
       const W = r.weightN;
-      const front = (r.wheels[0].loadN + r.wheels[1].loadN) / W;
-      const rear = (r.wheels[2].loadN + r.wheels[3].loadN) / W;
+      const front = (r.wheels[0].loadN! + r.wheels[1].loadN!) / W;
+      const rear = (r.wheels[2].loadN! + r.wheels[3].loadN!) / W;
       // The formula itself against the REFERENCES table (4 decimals).
       expect(Math.abs((B * Math.cos(th) - H * Math.sin(th)) / L - frontRef)).toBeLessThan(6e-5);
       expect(Math.abs((A * Math.cos(th) + H * Math.sin(th)) / L - rearRef)).toBeLessThan(6e-5);
@@ -47,7 +47,7 @@ describe('grade loads, facing uphill (Gillespie ch. 2)', () => {
       expect(Math.abs(front - (B * Math.cos(th) - H * Math.sin(th)) / L)).toBeLessThan(EPS_GRADE_LOAD_FRACTION);
       expect(Math.abs(rear - (A * Math.cos(th) + H * Math.sin(th)) / L)).toBeLessThan(EPS_GRADE_LOAD_FRACTION);
       // Left and right share equally (symmetric vehicle, no lateral component).
-      expect(Math.abs(r.wheels[0].loadN - r.wheels[1].loadN) / W).toBeLessThan(EPS_GRADE_LOAD_FRACTION);
+      expect(Math.abs(r.wheels[0].loadN! - r.wheels[1].loadN!) / W).toBeLessThan(EPS_GRADE_LOAD_FRACTION);
     });
   }
 

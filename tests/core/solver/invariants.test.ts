@@ -133,7 +133,7 @@ function firstNonFinite(v: unknown, path = 'result'): string | null {
 }
 
 function loadsOf(r: SolveResult): number[] {
-  return r.wheels.map((w) => w.loadN);
+  return r.wheels.map((w) => w.loadN!);
 }
 
 const statusCount: Record<SolveStatus, number> = { converged: 0, tipped: 0, 'no-contact': 0, 'not-converged': 0, unstable: 0 };
@@ -176,7 +176,7 @@ describe('equilibrium invariants (property-based, seeded)', () => {
             expect(w.loadN).toBe(0);
             expect(w.verticalLoadN).toBe(0);
           }
-          vertical += w.verticalLoadN;
+          vertical += w.verticalLoadN!;
         }
         expect(Math.abs(vertical - W) / W).toBeLessThan(EPS_LOAD_REL);
       }),
@@ -195,8 +195,8 @@ describe('equilibrium invariants (property-based, seeded)', () => {
         expect(b.status).toBe('converged');
         expect(c.status).toBe('converged');
         for (let i = 0; i < 4; i++) {
-          expect(Math.abs(b.wheels[i].loadN - a.wheels[i].loadN)).toBeLessThan(EPS_LOAD_REL * a.weightN);
-          expect(Math.abs(c.wheels[i].loadN - a.wheels[i].loadN)).toBeLessThan(EPS_LOAD_REL * a.weightN);
+          expect(Math.abs(b.wheels[i].loadN! - a.wheels[i].loadN!)).toBeLessThan(EPS_LOAD_REL * a.weightN);
+          expect(Math.abs(c.wheels[i].loadN! - a.wheels[i].loadN!)).toBeLessThan(EPS_LOAD_REL * a.weightN);
         }
       }),
       { seed: SEED + 1, numRuns: 40 },
@@ -241,10 +241,10 @@ describe('level ground: self-consistency (Gillespie ch. 2 static loads)', () => 
     const rear = (W * a) / v.wheelbaseM / 2;
     const expected = [front, front, rear, rear];
     for (let i = 0; i < 4; i++) {
-      expect(Math.abs(r.wheels[i].loadN - expected[i])).toBeLessThan(EPS_LOAD_REL * W);
-      expect(Math.abs(r.wheels[i].travelM)).toBeLessThan(1e-9);
+      expect(Math.abs(r.wheels[i].loadN! - expected[i])).toBeLessThan(EPS_LOAD_REL * W);
+      expect(Math.abs(r.wheels[i].travelM!)).toBeLessThan(1e-9);
       expect(r.wheels[i].lifted).toBe(false);
-      expect(Math.abs(r.wheels[i].loadShare - 1)).toBeLessThan(EPS_LOAD_REL);
+      expect(Math.abs(r.wheels[i].loadShare! - 1)).toBeLessThan(EPS_LOAD_REL);
     }
     expect(Math.abs(r.body.heaveM)).toBeLessThan(1e-9);
     expect(Math.abs(r.body.rollRad)).toBeLessThan(1e-9);

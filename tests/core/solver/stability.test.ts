@@ -76,7 +76,7 @@ describe('stability of equilibria', () => {
       const w = Float64Array.from(level.state);
       w[Q_ROLL] = -Math.atan(0.8 / 0.75);
       w[Q_Z] = 0.8 * Math.sin(-w[Q_ROLL]);
-      const r = solveEquilibrium(m, POSE, { warmStart: w, maxIterations: 200 });
+      const r = solveEquilibrium(m, POSE, { warmStart: w, maxIterations: 200, followBranch: true });
       expect(['converged', 'unstable']).toContain(r.status);
       expect(r.wheels[1].lifted && r.wheels[3].lifted).toBe(true);
       const st = stabilityOf(m, r.state, createStabilityScratch());
