@@ -80,7 +80,7 @@ const REGION_MARGIN_M = 1.0;
 /** Collision group of the terrain, for the ray filter. */
 const TERRAIN_GROUP = 1;
 
-export interface CannonSettleOptions {
+export interface CannonSettleOptions extends CannonRigOptions {
   /** Fixed time step (s). @default 1/500 */
   readonly timeStepS?: number;
   /** Simulated time cap (s). @default 20 */
@@ -174,6 +174,357 @@ function wheelCount<T>(a: T, b: T, c: T, d: T): [T, T, T, T] {
   return [a, b, c, d];
 }
 
+/** Options of the rig itself (shared by the settle and the tilt ramp). */
+export interface CannonRigOptions {
+  /** Fixed time step (s). @default 1/500 */
+  readonly timeStepS?: number;
+  /** Spacing of the heightfield samples (m). @default 0.05 */
+  readonly gridSpacingM?: number;
+  /** Height above ride height the body is dropped from (m). @default 0.01 */
+  readonly dropM?: number;
+  /** Damping ratio of each corner, for a quarter of the mass. @default 1 */
+  readonly dampingRatio?: number;
+  /** See CannonSettleOptions.contactRay. @default 'wheel-plane' */
+  readonly contactRay?: 'body-z' | 'wheel-plane';
+  /** Stick spring per tyre in the contact's tangent plane (N/m). @default 5e4 */
+  readonly stickStiffnessNPerM?: number;
+  /** Cap of the stick force as a ratio to the normal force. @default 1.5 */
+  readonly stickCapRatio?: number;
+  /** Margin of the sampled terrain region beyond the wheels (m). @default 1 */
+  readonly regionMarginM?: number;
+}
+
+/**
+ * The vehicle body on its four spring-damper corners in a cannon-es world (see the file header).
+ * `contactForces()` casts the rays and applies the corner and stick forces for the current state,
+ * filling the per-wheel readings; `advance()` steps the world by one time step.
+ */
+export class CannonRig {
+  readonly world: CANNON.World;
+  readonly body: CANNON.Body;
+  readonly massKg: number;
+  readonly weightN: number;
+  readonly dt: number;
+  /** Combined CG in the vehicle frame (x forward from the reference point, y left, z up) (m). */
+  readonly cgBody: CANNON.Vec3;
+  /** Per wheel, after contactForces(): normal load (N), load along gravity up (N), travel (m), stick/normal. */
+  readonly loads = new Float64Array(4);
+  readonly verticalLoads = new Float64Array(4);
+  readonly travel = new Float64Array(4);
+  readonly stickRatio = new Float64Array(4);
+  /** Per wheel, after contactForces(): the ray's hit point (terrain frame) and whether it hit. */
+  readonly hitPoint = [new CANNON.Vec3(), new CANNON.Vec3(), new CANNON.Vec3(), new CANNON.Vec3()];
+  readonly hit = [false, false, false, false];
+  /** Unit up (opposite gravity), terrain frame. */
+  readonly upWorld = new CANNON.Vec3(0, 0, 1);
+  private readonly corners: Corner[];
+  private readonly wheelPlane: boolean;
+  private readonly stickNPerM: number;
+  private readonly stickDampingNsPerM: number;
+  private readonly stickCap: number;
+  private readonly anchors = [new CANNON.Vec3(), new CANNON.Vec3(), new CANNON.Vec3(), new CANNON.Vec3()];
+  private readonly anchored = [false, false, false, false];
+  private readonly prevCompression = new Float64Array(4);
+  private readonly hadHit = [false, false, false, false];
+  // Scratch (hoisted out of the step loop).
+  private readonly rayFrom = new CANNON.Vec3();
+  private readonly rayTo = new CANNON.Vec3();
+  private readonly zBodyWorld = new CANNON.Vec3();
+  private readonly yBodyWorld = new CANNON.Vec3();
+  private readonly rayDir = new CANNON.Vec3();
+  private readonly rel = new CANNON.Vec3();
+  private readonly vPoint = new CANNON.Vec3();
+  private readonly tmp = new CANNON.Vec3();
+  private readonly normalForce = new CANNON.Vec3();
+  private readonly stickForce = new CANNON.Vec3();
+  private readonly totalForce = new CANNON.Vec3();
+  private readonly rayResult = new CANNON.RaycastResult();
+  private readonly rayOptions: { collisionFilterMask: number; skipBackfaces: boolean } = {
+    collisionFilterMask: TERRAIN_GROUP,
+    skipBackfaces: true,
+  };
+  private readonly localUp = new CANNON.Vec3(0, 0, 1);
+  private readonly localLeft = new CANNON.Vec3(0, 1, 0);
+
+  constructor(vehicle: Vehicle, terrain: Terrain, pose: Pose, tilt: Tilt | null, opts: CannonRigOptions = {}) {
+    const dt = opts.timeStepS ?? 1 / 500;
+    this.dt = dt;
+    const spacingM = opts.gridSpacingM ?? 0.05;
+    const dropM = opts.dropM ?? 0.01;
+    const zeta = opts.dampingRatio ?? 1;
+    const regionMarginM = opts.regionMarginM ?? REGION_MARGIN_M;
+
+    // --- Mass and combined CG (vehicle frame: x forward from the reference point, y left, z up).
+    const L = vehicle.wheelbaseM;
+    let massKg = vehicle.massKg;
+    let behindSum = vehicle.massKg * vehicle.cg.behindFrontAxleM;
+    let leftSum = vehicle.massKg * vehicle.cg.leftOfCentreM;
+    let heightSum = vehicle.massKg * vehicle.cg.heightM;
+    for (const p of vehicle.payload) {
+      massKg += p.massKg;
+      behindSum += p.massKg * p.behindFrontAxleM;
+      leftSum += p.massKg * p.leftOfCentreM;
+      heightSum += p.massKg * p.heightM;
+    }
+    const cgBehindM = behindSum / massKg;
+    const cgLeftM = leftSum / massKg;
+    const cgHeightM = heightSum / massKg;
+    const cgBody = new CANNON.Vec3(L / 2 - cgBehindM, cgLeftM, cgHeightM);
+    this.cgBody = cgBody;
+    this.massKg = massKg;
+    const weightN = massKg * STANDARD_GRAVITY_M_PER_S2;
+    this.weightN = weightN;
+
+    // --- Static shares (Gillespie ch. 2: W·b/L front, W·a/L rear; left/right by the lateral offset).
+    const frontAxleN = (weightN * (L - cgBehindM)) / L;
+    const rearAxleN = (weightN * cgBehindM) / L;
+    const tf = vehicle.trackFrontM;
+    const tr = vehicle.trackRearM;
+    const preload = wheelCount(
+      (frontAxleN * (tf / 2 + cgLeftM)) / tf,
+      (frontAxleN * (tf / 2 - cgLeftM)) / tf,
+      (rearAxleN * (tr / 2 + cgLeftM)) / tr,
+      (rearAxleN * (tr / 2 - cgLeftM)) / tr,
+    );
+
+    const corners: Corner[] = [];
+    for (let i = 0; i < 4; i++) {
+      const front = i < 2;
+      const left = i % 2 === 0;
+      const tyre = front ? vehicle.tyreFront : vehicle.tyreRear;
+      const susp = front ? vehicle.suspensionFront : vehicle.suspensionRear;
+      const track = front ? tf : tr;
+      const ks = susp.wheelRateNPerM;
+      const kt = tyre.stiffnessNPerM;
+      const k = (ks * kt) / (ks + kt);
+      // Compression at which this corner's load reaches zero (negative): the ray must reach past it.
+      const cZeroWithin = -preload[i] / k;
+      const cDroop = (-susp.droopM * (ks + kt)) / kt;
+      const cZero = cZeroWithin >= cDroop ? cZeroWithin : cDroop - (preload[i] - ks * susp.droopM) / kt;
+      corners.push({
+        hardpointBody: new CANNON.Vec3(
+          (front ? L / 2 : -L / 2) - cgBody.x,
+          (left ? track / 2 : -track / 2) - cgBody.y,
+          tyre.radiusM - cgBody.z,
+        ),
+        radiusM: tyre.radiusM,
+        preloadN: preload[i],
+        springNPerM: ks,
+        tyreNPerM: kt,
+        seriesNPerM: k,
+        bumpM: susp.bumpM,
+        droopM: susp.droopM,
+        dampingNsPerM: 2 * zeta * Math.sqrt((k * massKg) / 4),
+        rayLengthM: tyre.radiusM - cZero + RAY_MARGIN_M,
+      });
+    }
+    this.corners = corners;
+
+    // --- Terrain: sample a heightfield over a region around the wheels (terrain frame).
+    const field = new TerrainField(terrain);
+    const ch = Math.cos(pose.headingRad);
+    const sh = Math.sin(pose.headingRad);
+    const wheelX = new Float64Array(4);
+    const wheelY = new Float64Array(4);
+    const groundZ = new Float64Array(4);
+    let xMin = Infinity;
+    let xMax = -Infinity;
+    let yMin = Infinity;
+    let yMax = -Infinity;
+    for (let i = 0; i < 4; i++) {
+      const bx = corners[i].hardpointBody.x + cgBody.x;
+      const by = corners[i].hardpointBody.y + cgBody.y;
+      wheelX[i] = pose.xM + ch * bx - sh * by;
+      wheelY[i] = pose.yM + sh * bx + ch * by;
+      groundZ[i] = field.height(wheelX[i], wheelY[i]);
+      xMin = Math.min(xMin, wheelX[i]);
+      xMax = Math.max(xMax, wheelX[i]);
+      yMin = Math.min(yMin, wheelY[i]);
+      yMax = Math.max(yMax, wheelY[i]);
+    }
+    const maxRadiusM = Math.max(vehicle.tyreFront.radiusM, vehicle.tyreRear.radiusM);
+    const x0 = xMin - maxRadiusM - regionMarginM;
+    const y0 = yMin - maxRadiusM - regionMarginM;
+    const nx = Math.ceil((xMax + maxRadiusM + regionMarginM - x0) / spacingM) + 1;
+    const ny = Math.ceil((yMax + maxRadiusM + regionMarginM - y0) / spacingM) + 1;
+    const heights: number[][] = [];
+    for (let ix = 0; ix < nx; ix++) {
+      const column: number[] = new Array(ny);
+      for (let iy = 0; iy < ny; iy++) column[iy] = field.height(x0 + ix * spacingM, y0 + iy * spacingM);
+      heights.push(column);
+    }
+
+    // --- World: gravity in the terrain frame, rotated by the tilt.
+    const world = new CANNON.World();
+    this.world = world;
+    this.setTilt(pose.headingRad, tilt);
+
+    const ground = new CANNON.Body({ mass: 0, collisionFilterGroup: TERRAIN_GROUP });
+    ground.addShape(new CANNON.Heightfield(heights, { elementSize: spacingM }));
+    ground.position.set(x0, y0, 0);
+    world.addBody(ground);
+
+    // --- The vehicle body: box inertia set by hand (no shapes, so cannon-es cannot derive it).
+    const lengthM = L + vehicle.body.frontOverhangM + vehicle.body.rearOverhangM;
+    const widthM = Math.max(vehicle.body.widthM, tf, tr);
+    const heightM = vehicle.body.roofHeightM;
+    const body = new CANNON.Body({ mass: massKg, collisionFilterGroup: 2, collisionFilterMask: 0 });
+    this.body = body;
+    body.linearDamping = 0;
+    body.angularDamping = 0;
+    body.inertia.set(
+      (massKg * (widthM * widthM + heightM * heightM)) / 12,
+      (massKg * (lengthM * lengthM + heightM * heightM)) / 12,
+      (massKg * (lengthM * lengthM + widthM * widthM)) / 12,
+    );
+    body.invInertia.set(1 / body.inertia.x, 1 / body.inertia.y, 1 / body.inertia.z);
+
+    // Start on the least-squares plane z = a + b·x + c·y through the ground under the hardpoints.
+    const plane = fitPlane(wheelX, wheelY, groundZ);
+    const normal = new CANNON.Vec3(-plane[1], -plane[2], 1);
+    normal.normalize();
+    const yaw = new CANNON.Quaternion();
+    yaw.setFromAxisAngle(new CANNON.Vec3(0, 0, 1), pose.headingRad);
+    const lean = new CANNON.Quaternion();
+    lean.setFromVectors(new CANNON.Vec3(0, 0, 1), normal);
+    lean.mult(yaw, body.quaternion);
+    body.quaternion.normalize();
+    const refWorld = new CANNON.Vec3(pose.xM, pose.yM, plane[0] + plane[1] * pose.xM + plane[2] * pose.yM);
+    refWorld.addScaledVector(dropM, normal, refWorld);
+    const cgOffsetWorld = body.quaternion.vmult(cgBody);
+    refWorld.vadd(cgOffsetWorld, body.position);
+    body.previousPosition.copy(body.position);
+    body.updateInertiaWorld(true);
+    world.addBody(body);
+
+    this.wheelPlane = (opts.contactRay ?? 'wheel-plane') === 'wheel-plane';
+    this.stickNPerM = opts.stickStiffnessNPerM ?? STICK_STIFFNESS_N_PER_M;
+    this.stickDampingNsPerM = 2 * Math.sqrt((this.stickNPerM * massKg) / 4);
+    this.stickCap = opts.stickCapRatio ?? STICK_CAP_RATIO;
+  }
+
+  /** Tilt-table gravity: the table descends toward heading + downhill by the angle (null: level). */
+  setTilt(headingRad: number, tilt: Tilt | null): void {
+    const g = STANDARD_GRAVITY_M_PER_S2;
+    if (tilt) {
+      const dir = headingRad + tilt.downhillRad;
+      const sa = Math.sin(tilt.angleRad);
+      this.world.gravity.set(g * sa * Math.cos(dir), g * sa * Math.sin(dir), -g * Math.cos(tilt.angleRad));
+    } else {
+      this.world.gravity.set(0, 0, -g);
+    }
+    this.world.gravity.scale(-1 / g, this.upWorld);
+  }
+
+  /** Casts the four rays and applies the corner and stick forces for the current state. */
+  contactForces(): void {
+    const body = this.body;
+    const { rayFrom, rayTo, rayDir, rayResult, rayOptions, zBodyWorld, yBodyWorld, rel, vPoint, tmp } = this;
+    const dt = this.dt;
+    body.quaternion.vmult(this.localUp, zBodyWorld);
+    body.quaternion.vmult(this.localLeft, yBodyWorld);
+    for (let i = 0; i < 4; i++) {
+      const k = this.corners[i];
+      body.pointToWorldFrame(k.hardpointBody, rayFrom);
+      rayDir.copy(zBodyWorld);
+      rayDir.negate(rayDir);
+      rayFrom.addScaledVector(k.rayLengthM, rayDir, rayTo);
+      rayResult.reset();
+      this.world.raycastClosest(rayFrom, rayTo, rayOptions, rayResult);
+      if (this.wheelPlane && rayResult.hasHit) {
+        // Round tyre: cast again toward the wheel circle's lowest point over this ground, i.e.
+        // along −(ground normal projected on the wheel plane, which is normal to body y).
+        const n0 = rayResult.hitNormalWorld;
+        n0.addScaledVector(-n0.dot(yBodyWorld), yBodyWorld, rayDir);
+        const len = rayDir.length();
+        if (len > 1e-9) {
+          rayDir.scale(-1 / len, rayDir);
+          rayFrom.addScaledVector(k.rayLengthM, rayDir, rayTo);
+          rayResult.reset();
+          this.world.raycastClosest(rayFrom, rayTo, rayOptions, rayResult);
+        }
+      }
+      this.loads[i] = 0;
+      this.verticalLoads[i] = 0;
+      this.stickRatio[i] = 0;
+      this.hit[i] = rayResult.hasHit;
+      if (!rayResult.hasHit) {
+        this.hadHit[i] = false;
+        this.anchored[i] = false;
+        this.travel[i] = -k.droopM;
+        continue;
+      }
+      this.hitPoint[i].copy(rayResult.hitPointWorld);
+      const c = k.radiusM - rayResult.distance;
+      const rate = this.hadHit[i] ? (c - this.prevCompression[i]) / dt : 0;
+      this.prevCompression[i] = c;
+      this.hadHit[i] = true;
+      let f = cornerSpring(k, c, this.travel, i);
+      if (f > 0) {
+        f += k.dampingNsPerM * rate;
+        if (f < 0) f = 0;
+      }
+      if (f <= 0) {
+        this.anchored[i] = false;
+        continue;
+      }
+      const n = rayResult.hitNormalWorld;
+      let nDotZ = n.dot(zBodyWorld);
+      if (nDotZ < MIN_NORMAL_DOT) nDotZ = MIN_NORMAL_DOT;
+      const normalN = f / nDotZ;
+      n.scale(normalN, this.normalForce);
+
+      // Stick: spring-damper in the tangent plane, anchored at the first touch.
+      const p = rayResult.hitPointWorld;
+      if (!this.anchored[i]) {
+        this.anchors[i].copy(p);
+        this.anchored[i] = true;
+      }
+      p.vsub(this.anchors[i], tmp);
+      tmp.addScaledVector(-tmp.dot(n), n, tmp);
+      tmp.scale(-this.stickNPerM, this.stickForce);
+      p.vsub(body.position, rel);
+      body.angularVelocity.cross(rel, vPoint);
+      vPoint.vadd(body.velocity, vPoint);
+      vPoint.addScaledVector(-vPoint.dot(n), n, vPoint);
+      this.stickForce.addScaledVector(-this.stickDampingNsPerM, vPoint, this.stickForce);
+      const stickN = this.stickForce.length();
+      const capN = this.stickCap * normalN;
+      if (stickN > capN) this.stickForce.scale(capN / stickN, this.stickForce);
+      this.stickRatio[i] = stickN / normalN;
+
+      this.normalForce.vadd(this.stickForce, this.totalForce);
+      body.applyForce(this.totalForce, rel);
+      this.loads[i] = normalN;
+      this.verticalLoads[i] = this.totalForce.dot(this.upWorld);
+    }
+  }
+
+  /** One fixed time step of the world (after contactForces()). */
+  advance(): void {
+    this.world.step(this.dt);
+  }
+
+  /**
+   * Where a wheel stands or would touch, terrain frame, into out: the ray's hit point, or for a
+   * wheel whose ray found nothing, its hardpoint dropped by the tyre radius along body −z.
+   */
+  wheelGroundPoint(i: number, out: CANNON.Vec3): CANNON.Vec3 {
+    if (this.hit[i]) return out.copy(this.hitPoint[i]);
+    const k = this.corners[i];
+    this.body.pointToWorldFrame(k.hardpointBody, out);
+    this.body.quaternion.vmult(this.localUp, this.tmp);
+    return out.addScaledVector(-k.radiusM, this.tmp, out);
+  }
+
+  /** The largest stick / normal ratio over the wheels carrying more than minLoadN (default: any load). */
+  maxStickRatio(minLoadN = 0): number {
+    let m = 0;
+    for (let i = 0; i < 4; i++) if (this.loads[i] > minLoadN && this.stickRatio[i] > m) m = this.stickRatio[i];
+    return m;
+  }
+}
+
 /**
  * Settles the vehicle on the terrain with cannon-es and returns the tyre loads. See the file
  * header for the model. Inputs are not mutated.
@@ -186,192 +537,15 @@ export function settleWithCannon(
   opts: CannonSettleOptions = {},
 ): CannonSettleResult {
   const wallStartMs = performance.now();
-  const dt = opts.timeStepS ?? 1 / 500;
+  const rig = new CannonRig(vehicle, terrain, pose, tilt, opts);
+  const dt = rig.dt;
   const maxTimeS = opts.maxTimeS ?? 20;
-  const spacingM = opts.gridSpacingM ?? 0.05;
-  const dropM = opts.dropM ?? 0.01;
   const windowS = opts.settleWindowS ?? 0.5;
   const bandFraction = opts.settleBandFraction ?? 0.005;
-  const zeta = opts.dampingRatio ?? 1;
-  const g = STANDARD_GRAVITY_M_PER_S2;
-
-  // --- Mass and combined CG (vehicle frame: x forward from the reference point, y left, z up).
-  const L = vehicle.wheelbaseM;
-  let massKg = vehicle.massKg;
-  let behindSum = vehicle.massKg * vehicle.cg.behindFrontAxleM;
-  let leftSum = vehicle.massKg * vehicle.cg.leftOfCentreM;
-  let heightSum = vehicle.massKg * vehicle.cg.heightM;
-  for (const p of vehicle.payload) {
-    massKg += p.massKg;
-    behindSum += p.massKg * p.behindFrontAxleM;
-    leftSum += p.massKg * p.leftOfCentreM;
-    heightSum += p.massKg * p.heightM;
-  }
-  const cgBehindM = behindSum / massKg;
-  const cgLeftM = leftSum / massKg;
-  const cgHeightM = heightSum / massKg;
-  const cgBody = new CANNON.Vec3(L / 2 - cgBehindM, cgLeftM, cgHeightM);
-  const weightN = massKg * g;
-
-  // --- Static shares (Gillespie ch. 2: W·b/L front, W·a/L rear; left/right by the lateral offset).
-  const frontAxleN = (weightN * (L - cgBehindM)) / L;
-  const rearAxleN = (weightN * cgBehindM) / L;
-  const tf = vehicle.trackFrontM;
-  const tr = vehicle.trackRearM;
-  const preload = wheelCount(
-    (frontAxleN * (tf / 2 + cgLeftM)) / tf,
-    (frontAxleN * (tf / 2 - cgLeftM)) / tf,
-    (rearAxleN * (tr / 2 + cgLeftM)) / tr,
-    (rearAxleN * (tr / 2 - cgLeftM)) / tr,
-  );
-
-  const corners: Corner[] = [];
-  for (let i = 0; i < 4; i++) {
-    const front = i < 2;
-    const left = i % 2 === 0;
-    const tyre = front ? vehicle.tyreFront : vehicle.tyreRear;
-    const susp = front ? vehicle.suspensionFront : vehicle.suspensionRear;
-    const track = front ? tf : tr;
-    const ks = susp.wheelRateNPerM;
-    const kt = tyre.stiffnessNPerM;
-    const k = (ks * kt) / (ks + kt);
-    // Compression at which this corner's load reaches zero (negative): the ray must reach past it.
-    const cZeroWithin = -preload[i] / k;
-    const cDroop = (-susp.droopM * (ks + kt)) / kt;
-    const cZero = cZeroWithin >= cDroop ? cZeroWithin : cDroop - (preload[i] - ks * susp.droopM) / kt;
-    corners.push({
-      hardpointBody: new CANNON.Vec3(
-        (front ? L / 2 : -L / 2) - cgBody.x,
-        (left ? track / 2 : -track / 2) - cgBody.y,
-        tyre.radiusM - cgBody.z,
-      ),
-      radiusM: tyre.radiusM,
-      preloadN: preload[i],
-      springNPerM: ks,
-      tyreNPerM: kt,
-      seriesNPerM: k,
-      bumpM: susp.bumpM,
-      droopM: susp.droopM,
-      dampingNsPerM: 2 * zeta * Math.sqrt((k * massKg) / 4),
-      rayLengthM: tyre.radiusM - cZero + RAY_MARGIN_M,
-    });
-  }
-
-  // --- Terrain: sample a heightfield over a region around the wheels (terrain frame).
-  const field = new TerrainField(terrain);
-  const ch = Math.cos(pose.headingRad);
-  const sh = Math.sin(pose.headingRad);
-  const wheelX = new Float64Array(4);
-  const wheelY = new Float64Array(4);
-  const groundZ = new Float64Array(4);
-  let xMin = Infinity;
-  let xMax = -Infinity;
-  let yMin = Infinity;
-  let yMax = -Infinity;
-  for (let i = 0; i < 4; i++) {
-    const bx = corners[i].hardpointBody.x + cgBody.x;
-    const by = corners[i].hardpointBody.y + cgBody.y;
-    wheelX[i] = pose.xM + ch * bx - sh * by;
-    wheelY[i] = pose.yM + sh * bx + ch * by;
-    groundZ[i] = field.height(wheelX[i], wheelY[i]);
-    xMin = Math.min(xMin, wheelX[i]);
-    xMax = Math.max(xMax, wheelX[i]);
-    yMin = Math.min(yMin, wheelY[i]);
-    yMax = Math.max(yMax, wheelY[i]);
-  }
-  const maxRadiusM = Math.max(vehicle.tyreFront.radiusM, vehicle.tyreRear.radiusM);
-  const x0 = xMin - maxRadiusM - REGION_MARGIN_M;
-  const y0 = yMin - maxRadiusM - REGION_MARGIN_M;
-  const nx = Math.ceil((xMax + maxRadiusM + REGION_MARGIN_M - x0) / spacingM) + 1;
-  const ny = Math.ceil((yMax + maxRadiusM + REGION_MARGIN_M - y0) / spacingM) + 1;
-  const heights: number[][] = [];
-  for (let ix = 0; ix < nx; ix++) {
-    const column: number[] = new Array(ny);
-    for (let iy = 0; iy < ny; iy++) column[iy] = field.height(x0 + ix * spacingM, y0 + iy * spacingM);
-    heights.push(column);
-  }
-
-  // --- World: gravity in the terrain frame, rotated by the tilt.
-  const world = new CANNON.World();
-  if (tilt) {
-    const dir = pose.headingRad + tilt.downhillRad;
-    const sa = Math.sin(tilt.angleRad);
-    world.gravity.set(g * sa * Math.cos(dir), g * sa * Math.sin(dir), -g * Math.cos(tilt.angleRad));
-  } else {
-    world.gravity.set(0, 0, -g);
-  }
-  const upWorld = world.gravity.clone();
-  upWorld.scale(-1 / g, upWorld);
-
-  const ground = new CANNON.Body({ mass: 0, collisionFilterGroup: TERRAIN_GROUP });
-  ground.addShape(new CANNON.Heightfield(heights, { elementSize: spacingM }));
-  ground.position.set(x0, y0, 0);
-  world.addBody(ground);
-
-  // --- The vehicle body: box inertia set by hand (no shapes, so cannon-es cannot derive it).
-  const lengthM = L + vehicle.body.frontOverhangM + vehicle.body.rearOverhangM;
-  const widthM = Math.max(vehicle.body.widthM, tf, tr);
-  const heightM = vehicle.body.roofHeightM;
-  const body = new CANNON.Body({ mass: massKg, collisionFilterGroup: 2, collisionFilterMask: 0 });
-  body.linearDamping = 0;
-  body.angularDamping = 0;
-  body.inertia.set(
-    (massKg * (widthM * widthM + heightM * heightM)) / 12,
-    (massKg * (lengthM * lengthM + heightM * heightM)) / 12,
-    (massKg * (lengthM * lengthM + widthM * widthM)) / 12,
-  );
-  body.invInertia.set(1 / body.inertia.x, 1 / body.inertia.y, 1 / body.inertia.z);
-
-  // Start on the least-squares plane z = a + b·x + c·y through the ground under the hardpoints.
-  const plane = fitPlane(wheelX, wheelY, groundZ);
-  const normal = new CANNON.Vec3(-plane[1], -plane[2], 1);
-  normal.normalize();
-  const yaw = new CANNON.Quaternion();
-  yaw.setFromAxisAngle(new CANNON.Vec3(0, 0, 1), pose.headingRad);
-  const lean = new CANNON.Quaternion();
-  lean.setFromVectors(new CANNON.Vec3(0, 0, 1), normal);
-  lean.mult(yaw, body.quaternion);
-  body.quaternion.normalize();
-  const refWorld = new CANNON.Vec3(pose.xM, pose.yM, plane[0] + plane[1] * pose.xM + plane[2] * pose.yM);
-  refWorld.addScaledVector(dropM, normal, refWorld);
-  const cgOffsetWorld = body.quaternion.vmult(cgBody);
-  refWorld.vadd(cgOffsetWorld, body.position);
-  body.previousPosition.copy(body.position);
-  body.updateInertiaWorld(true);
-  world.addBody(body);
-
-  // --- Scratch (hoisted out of the step loop).
-  const rayFrom = new CANNON.Vec3();
-  const rayTo = new CANNON.Vec3();
-  const zBodyWorld = new CANNON.Vec3();
-  const rayDir = new CANNON.Vec3();
-  const rel = new CANNON.Vec3();
-  const vPoint = new CANNON.Vec3();
-  const tmp = new CANNON.Vec3();
-  const normalForce = new CANNON.Vec3();
-  const stickForce = new CANNON.Vec3();
-  const totalForce = new CANNON.Vec3();
-  const rayResult = new CANNON.RaycastResult();
-  const rayOptions: { collisionFilterMask: number; skipBackfaces: boolean } = {
-    collisionFilterMask: TERRAIN_GROUP,
-    skipBackfaces: true,
-  };
-  const localUp = new CANNON.Vec3(0, 0, 1);
-  const localLeft = new CANNON.Vec3(0, 1, 0);
-  const yBodyWorld = new CANNON.Vec3();
-  const wheelPlane = (opts.contactRay ?? 'wheel-plane') === 'wheel-plane';
-  const anchors = [new CANNON.Vec3(), new CANNON.Vec3(), new CANNON.Vec3(), new CANNON.Vec3()];
-  const anchored = [false, false, false, false];
-  const prevCompression = new Float64Array(4);
-  const hadHit = [false, false, false, false];
-  const loads = new Float64Array(4);
-  const verticalLoads = new Float64Array(4);
-  const travel = new Float64Array(4);
   const bandRef = new Float64Array(4);
-  const stickRatio = new Float64Array(4);
-  const halfBandN = (bandFraction * weightN) / 2;
-  const stickNPerM = opts.stickStiffnessNPerM ?? STICK_STIFFNESS_N_PER_M;
-  const stickDampingNsPerM = 2 * Math.sqrt((stickNPerM * massKg) / 4);
+  const halfBandN = (bandFraction * rig.weightN) / 2;
+  const loads = rig.loads;
+  const body = rig.body;
 
   const maxSteps = Math.ceil(maxTimeS / dt);
   let steps = 0;
@@ -381,82 +555,7 @@ export function settleWithCannon(
   let finite = true;
   for (; steps <= maxSteps; steps++) {
     t = steps * dt;
-    body.quaternion.vmult(localUp, zBodyWorld);
-    body.quaternion.vmult(localLeft, yBodyWorld);
-    for (let i = 0; i < 4; i++) {
-      const k = corners[i];
-      body.pointToWorldFrame(k.hardpointBody, rayFrom);
-      rayDir.copy(zBodyWorld);
-      rayDir.negate(rayDir);
-      rayFrom.addScaledVector(k.rayLengthM, rayDir, rayTo);
-      rayResult.reset();
-      world.raycastClosest(rayFrom, rayTo, rayOptions, rayResult);
-      if (wheelPlane && rayResult.hasHit) {
-        // Round tyre: cast again toward the wheel circle's lowest point over this ground, i.e.
-        // along −(ground normal projected on the wheel plane, which is normal to body y).
-        const n0 = rayResult.hitNormalWorld;
-        n0.addScaledVector(-n0.dot(yBodyWorld), yBodyWorld, rayDir);
-        const len = rayDir.length();
-        if (len > 1e-9) {
-          rayDir.scale(-1 / len, rayDir);
-          rayFrom.addScaledVector(k.rayLengthM, rayDir, rayTo);
-          rayResult.reset();
-          world.raycastClosest(rayFrom, rayTo, rayOptions, rayResult);
-        }
-      }
-      loads[i] = 0;
-      verticalLoads[i] = 0;
-      stickRatio[i] = 0;
-      if (!rayResult.hasHit) {
-        hadHit[i] = false;
-        anchored[i] = false;
-        travel[i] = -k.droopM;
-        continue;
-      }
-      const c = k.radiusM - rayResult.distance;
-      const rate = hadHit[i] ? (c - prevCompression[i]) / dt : 0;
-      prevCompression[i] = c;
-      hadHit[i] = true;
-      let f = cornerSpring(k, c, travel, i);
-      if (f > 0) {
-        f += k.dampingNsPerM * rate;
-        if (f < 0) f = 0;
-      }
-      if (f <= 0) {
-        anchored[i] = false;
-        continue;
-      }
-      const n = rayResult.hitNormalWorld;
-      let nDotZ = n.dot(zBodyWorld);
-      if (nDotZ < MIN_NORMAL_DOT) nDotZ = MIN_NORMAL_DOT;
-      const normalN = f / nDotZ;
-      n.scale(normalN, normalForce);
-
-      // Stick: spring-damper in the tangent plane, anchored at the first touch.
-      const p = rayResult.hitPointWorld;
-      if (!anchored[i]) {
-        anchors[i].copy(p);
-        anchored[i] = true;
-      }
-      p.vsub(anchors[i], tmp);
-      tmp.addScaledVector(-tmp.dot(n), n, tmp);
-      tmp.scale(-stickNPerM, stickForce);
-      p.vsub(body.position, rel);
-      body.angularVelocity.cross(rel, vPoint);
-      vPoint.vadd(body.velocity, vPoint);
-      vPoint.addScaledVector(-vPoint.dot(n), n, vPoint);
-      stickForce.addScaledVector(-stickDampingNsPerM, vPoint, stickForce);
-      const stickN = stickForce.length();
-      const capN = STICK_CAP_RATIO * normalN;
-      if (stickN > capN) stickForce.scale(capN / stickN, stickForce);
-      stickRatio[i] = stickN / normalN;
-
-      normalForce.vadd(stickForce, totalForce);
-      body.applyForce(totalForce, rel);
-      loads[i] = normalN;
-      verticalLoads[i] = totalForce.dot(upWorld);
-    }
-
+    rig.contactForces();
     // Settled: every load has stayed within ±halfBand of the band's reference for windowS.
     let inBand = steps > 0;
     for (let i = 0; i < 4; i++) {
@@ -474,17 +573,17 @@ export function settleWithCannon(
       break;
     }
     if (steps === maxSteps) break;
-    world.step(dt);
+    rig.advance();
   }
 
-  let maxStick = 0;
-  for (let i = 0; i < 4; i++) if (loads[i] > 0 && stickRatio[i] > maxStick) maxStick = stickRatio[i];
+  const v = rig.verticalLoads;
+  const tr = rig.travel;
   return {
     loadsN: wheelCount(loads[0], loads[1], loads[2], loads[3]),
-    verticalLoadsN: wheelCount(verticalLoads[0], verticalLoads[1], verticalLoads[2], verticalLoads[3]),
-    travelM: wheelCount(travel[0], travel[1], travel[2], travel[3]),
-    weightN,
-    maxStickRatio: maxStick,
+    verticalLoadsN: wheelCount(v[0], v[1], v[2], v[3]),
+    travelM: wheelCount(tr[0], tr[1], tr[2], tr[3]),
+    weightN: rig.weightN,
+    maxStickRatio: rig.maxStickRatio(),
     settled: settled && finite,
     simulatedTimeS: t,
     steps,

@@ -93,8 +93,9 @@ export const linesCommand: CommandSpec = {
         toJsonText({
           lineCount: lines.length,
           best: lineJson(ranking.best, 1),
-          worst: lineJson(ranking.worst, ranking.ranked.length),
-          lines: ranking.ranked.map((l, i) => lineJson(l, i + 1)),
+          worst: lineJson(ranking.worst, ranking.rank[ranking.rank.length - 1]),
+          rankResolutionDeg: deg(ranking.resolutionRad),
+          lines: ranking.ranked.map((l, i) => ({ ...lineJson(l, ranking.rank[i]), tiedWith: ranking.tiedWith[i] })),
         }),
       );
     } else if (args.options.csv) {
@@ -102,7 +103,7 @@ export const linesCommand: CommandSpec = {
         formatCsv(
           ['rank', 'line', 'offset_m', 'heading_change_deg', 'min_force_angle_deg', 'at_m', 'energy_at_min_m', 'min_clearance_m', 'first_unload', 'first_lift', 'tip_at_m'],
           ranking.ranked.map((l, i) => [
-            i + 1,
+            ranking.rank[i],
             l.index,
             round(l.offsetM),
             deg(l.headingChangeRad),
@@ -121,7 +122,8 @@ export const linesCommand: CommandSpec = {
       const describe = (l: LineSummary) =>
         `offset ${u.lengthOf(l.offsetM).toFixed(2)} ${u.length}, heading ${deg(l.headingChangeRad, 1)}°: smallest force-angle ${deg(l.minForceAngleRad, 1)}°${l.tip ? `, tips at ${u.lengthOf(l.tip.distanceM).toFixed(2)} ${u.length}` : ''}`;
       io.out(`${s.name}: ${s.vehicle.name}, ${lines.length} lines`);
-      io.out(formatKeyValues([['best line', describe(ranking.best)], ['worst line', describe(ranking.worst)]]));
+      const tie = (tied: boolean) => (tied ? ' (tied with others within 0.1°)' : '');
+      io.out(formatKeyValues([['best line', describe(ranking.best) + tie(ranking.bestTied)], ['worst line', describe(ranking.worst) + tie(ranking.worstTied)]]));
       io.out('');
       io.out(
         formatTable(
@@ -136,7 +138,7 @@ export const linesCommand: CommandSpec = {
             { header: 'tip at', unit: u.length, digits: 2 },
           ],
           ranking.ranked.map((l, i) => [
-            i + 1,
+            ranking.rank[i],
             u.lengthOf(l.offsetM),
             deg(l.headingChangeRad),
             deg(l.minForceAngleRad),

@@ -4,15 +4,22 @@ import { EXIT_BAD_INPUT, EXIT_OK, type CommandSpec } from '../command';
 import { formatKeyValues, formatTable } from '../format';
 import { loadScenarioFile, toJsonText } from '../load';
 import { CAUTION, deg, formatCsv, progressReporter } from '../analysisOutput';
+import { angleWords } from './tilt';
 
 const RAD_PER_DEG = Math.PI / 180;
+
+/** The table tilt, the slope from level and the tilt beyond the ground here (degrees). */
+function datums(e: { angleRad: number; fromLevelRad: number; beyondGroundRad: number }) {
+  return { angleDeg: deg(e.angleRad), fromLevelDeg: deg(e.fromLevelRad), beyondGroundDeg: deg(e.beyondGroundRad) };
+}
 
 function directionJson(d: RoseDirection): object {
   return {
     downhillDeg: deg(d.downhillRad),
-    firstLift: d.firstLift ? { wheel: d.firstLift.wheel, angleDeg: deg(d.firstLift.angleRad) } : null,
-    tip: d.tip ? { angleDeg: deg(d.tip.angleRad), edge: d.tip.edge } : null,
-    slide: d.slide ? { angleDeg: deg(d.slide.angleRad) } : null,
+    firstLift: d.firstLift ? { wheel: d.firstLift.wheel, ...datums(d.firstLift), atTip: d.firstLift.atTip } : null,
+    tip: d.tip ? { ...datums(d.tip), edge: d.tip.edge, reason: d.tip.reason, softFrom: d.tip.softFrom ? datums(d.tip.softFrom) : null } : null,
+    tipEdgeChanged: d.tipEdgeChanged,
+    slide: d.slide ? datums(d.slide) : null,
   };
 }
 
@@ -20,6 +27,7 @@ export function roseJson(r: RoseResult, onTerrain: boolean): object {
   return {
     table: onTerrain ? 'scenario terrain at the scenario pose' : 'level tilt table',
     maxAngleDeg: deg(r.maxAngleRad),
+    groundFromLevelDeg: deg(r.groundFromLevelRad),
     weakest: directionJson(r.weakest),
     weakestLift: directionJson(r.weakestLift),
     directions: r.directions.map(directionJson),
@@ -87,11 +95,11 @@ export const roseCommand: CommandSpec = {
       io.out(`${s.name}: ${s.vehicle.name}, ${onTerrain ? 'on the scenario terrain' : 'level tilt table'}, every ${stepDeg}°`);
       io.out(
         formatKeyValues([
-          ['weakest direction (tip)', `${directionWords(r.weakest.downhillRad)}: tips at ${r.weakest.tip ? `${deg(r.weakest.tip.angleRad, 1)}°` : `> ${deg(r.maxAngleRad, 0)}°`}`],
+          ['weakest direction (tip)', `${directionWords(r.weakest.downhillRad)}: tips at ${r.weakest.tip ? angleWords(r.weakest.tip) : `> ${deg(r.maxAngleRad, 0)}°`}`],
           [
             'earliest wheel lift',
             r.weakestLift.firstLift
-              ? `${r.weakestLift.firstLift.wheel} at ${deg(r.weakestLift.firstLift.angleRad, 1)}°, ${directionWords(r.weakestLift.downhillRad)}`
+              ? `${r.weakestLift.firstLift.wheel} at ${angleWords(r.weakestLift.firstLift)}, ${directionWords(r.weakestLift.downhillRad)}`
               : 'none before the tip',
           ],
         ]),
@@ -102,21 +110,25 @@ export const roseCommand: CommandSpec = {
           [
             { header: 'downhill', unit: '°', digits: 1 },
             { header: 'lifts' },
-            { header: 'lift', unit: '°', digits: 2 },
-            { header: 'tip', unit: '°', digits: 2 },
+            { header: 'lift', unit: '° from level', digits: 1 },
+            { header: 'tip', unit: '° from level', digits: 1 },
+            { header: 'tip', unit: '° beyond the ground here', digits: 1 },
             { header: 'over' },
-            { header: 'slides', unit: '°', digits: 2 },
+            { header: 'slides', unit: '° from level', digits: 1 },
           ],
           r.directions.map((d) => [
             deg(d.downhillRad),
             d.firstLift?.wheel ?? '',
-            deg(d.firstLift?.angleRad),
-            deg(d.tip?.angleRad),
-            d.tip ? d.tip.edge.join('–') : '',
-            deg(d.slide?.angleRad),
+            deg(d.firstLift?.fromLevelRad),
+            deg(d.tip?.fromLevelRad),
+            deg(d.tip?.beyondGroundRad),
+            d.tip ? d.tip.edge.join('–') + (d.tipEdgeChanged ? ' (edge changes)' : '') + (d.tip.softFrom ? ' (soft)' : '') : '',
+            deg(d.slide?.fromLevelRad),
           ]),
         ),
       );
+      io.out('(edge changes): the tip edge differs from the direction before, so the tip angle may change quickly there.');
+      io.out('(soft): the stance is nearly neutral before the tip; see --json tip.softFrom for where that begins.');
       io.out('');
       io.out(CAUTION);
     }

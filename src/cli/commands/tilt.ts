@@ -1,17 +1,42 @@
 /** `plumbline tilt FILE`: tilt-table sweep about one downhill direction to the first lift, slide and tip. */
-import { tiltSweep, type TiltSweepResult } from '../../core/index';
+import { tiltSweep, type TiltAngle, type TiltSweepDetail } from '../../core/index';
 import { EXIT_BAD_INPUT, EXIT_FAILURE, EXIT_OK, type CommandSpec } from '../command';
 import { formatKeyValues, formatTable } from '../format';
 import { loadScenarioFile, toJsonText } from '../load';
 import { displayUnits, modelOf, parseDownhill, radToDegRounded } from '../solveScenario';
 
+/** An angle's datums for JSON: the table tilt, the slope from level, the tilt beyond the ground here. */
+function datumsJson(e: TiltAngle): object {
+  return {
+    angleDeg: radToDegRounded(e.angleRad),
+    fromLevelDeg: radToDegRounded(e.fromLevelRad),
+    beyondGroundDeg: radToDegRounded(e.beyondGroundRad),
+  };
+}
+
+/** "38.9° from level (38.9° more than the ground here)": an angle with its datums, to 0.1°. */
+export function angleWords(e: TiltAngle): string {
+  const d = (rad: number) => `${radToDegRounded(rad, 1).toFixed(1)}°`;
+  return `${d(e.fromLevelRad)} from level (${d(e.beyondGroundRad)} more than the ground here)`;
+}
+
+const REASON_WORDS = {
+  fold: 'the stance loses its stiffness (a fold)',
+  'plumb-line-at-edge': 'the plumb line reaches the edge of the support',
+  'does-not-stand-at-start': 'it does not stand at the starting tilt',
+} as const;
+
 /** The documented JSON form of a tilt sweep. */
-export function tiltJson(r: TiltSweepResult): object {
+export function tiltJson(r: TiltSweepDetail): object {
   return {
     downhillDeg: radToDegRounded(r.downhillRad, 6),
-    firstLift: r.firstLift ? { wheel: r.firstLift.wheel, angleDeg: radToDegRounded(r.firstLift.angleRad) } : null,
-    tip: r.tip ? { angleDeg: radToDegRounded(r.tip.angleRad), edge: r.tip.edge } : null,
-    slide: r.slide ? { angleDeg: radToDegRounded(r.slide.angleRad) } : null,
+    startFromLevelDeg: radToDegRounded(r.startFromLevelRad),
+    firstLift: r.firstLift ? { wheel: r.firstLift.wheel, ...datumsJson(r.firstLift), atTip: r.firstLift.atTip } : null,
+    tip: r.tip
+      ? { ...datumsJson(r.tip), edge: r.tip.edge, reason: r.tip.reason, softFrom: r.tip.softFrom ? datumsJson(r.tip.softFrom) : null }
+      : null,
+    slide: r.slide ? datumsJson(r.slide) : null,
+    firstLimit: r.firstLimit,
     evaluations: r.evaluations,
     samples: r.samples.map((s) => ({
       angleDeg: radToDegRounded(s.angleRad),
@@ -57,29 +82,34 @@ export const tiltCommand: CommandSpec = {
     if (args.options.json) io.out(toJsonText(tiltJson(r)));
     else {
       const u = displayUnits(s.units);
-      const deg = (rad: number) => `${radToDegRounded(rad, 2).toFixed(2)}°`;
       io.out(`${s.name}: ${s.vehicle.name}, downhill ${radToDegRounded(downhillRad, 1)}°`);
       io.out(
         formatKeyValues([
-          ['first wheel to lift', r.firstLift ? `${r.firstLift.wheel} at ${deg(r.firstLift.angleRad)}` : 'none before the tip'],
-          ['tips at', r.tip ? `${deg(r.tip.angleRad)} over ${r.tip.edge.join('–')}` : 'no tip up to 89°'],
-          ['slides at', r.slide ? `${deg(r.slide.angleRad)} (ground friction ${s.friction})` : 'no slide before the tip'],
+          ['first wheel to lift', r.firstLift ? `${r.firstLift.wheel} at ${angleWords(r.firstLift)}${r.firstLift.atTip ? ', as it goes over' : ''}` : 'none before the tip'],
+          [
+            'tips at',
+            r.tip
+              ? `${angleWords(r.tip)} over ${r.tip.edge.join('–')}: ${REASON_WORDS[r.tip.reason]}` +
+                (r.tip.softFrom ? `; nearly neutral from ${angleWords(r.tip.softFrom)}: take that as the limit` : '')
+              : 'no tip up to 89°',
+          ],
+          ['slides at', r.slide ? `${angleWords(r.slide)} (ground friction ${s.friction})` : 'no slide before the tip'],
         ]),
       );
       io.out('');
       io.out(
         formatTable(
           [
-            { header: 'tilt', unit: '°', digits: 2 },
+            { header: 'tilt beyond the ground here', unit: '°', digits: 1 },
             { header: 'FL', unit: u.force, digits: 0 },
             { header: 'FR', unit: u.force, digits: 0 },
             { header: 'RL', unit: u.force, digits: 0 },
             { header: 'RR', unit: u.force, digits: 0 },
-            { header: 'force-angle', unit: '°', digits: 2 },
+            { header: 'force-angle', unit: '°', digits: 1 },
             { header: 'grip needed', unit: 'μ', digits: 2 },
           ],
           r.samples.map((p) => [
-            (p.angleRad * 180) / Math.PI,
+            ((p.angleRad - r.startAngleRad) * 180) / Math.PI,
             ...p.loadsN.map((n) => u.forceOf(n)),
             (p.forceAngleRad * 180) / Math.PI,
             p.frictionDemand,

@@ -2,6 +2,9 @@
  * Build options: a base vehicle plus modifications, each turned into the physical change it causes,
  * and builds compared side by side (SSF, tilt-table lift and tip each way, the weakest direction,
  * the obstacle pass headline, CG height), each as a value and its change from the first build.
+ * Every build's lift and tip come from the same tilt sweep (tilt.ts: the end of the stable
+ * equilibrium branch, bracketed to 0.01°), on a level table, so the angles are from level and the
+ * changes compare like with like.
  *
  * How each modification is modelled (say so wherever results are shown):
  * - Tyre diameter (new radius r'): everything rides higher by Δr = r' − r: the CG as weighed

@@ -2,6 +2,7 @@
 export * from './clearance';
 export * from './pass';
 export * from './rose';
+export * from './spare';
 export * from './lines';
 export * from './builds';
 export * from './cg';

@@ -148,23 +148,71 @@ export function runLineSweepJob(job: LineSweepJob, onLine?: (summary: LineSummar
   return out;
 }
 
+/**
+ * Resolution of the ranking (rad): lines whose smallest force-angle margins differ by no more than
+ * this are tied. The margins are shown to 0.1°, and the pass samples each line at its stations only
+ * (the true smallest margin lies between stations), so a difference below 0.1° says nothing about
+ * which line is better.
+ */
+export const LINE_RANK_RESOLUTION_RAD = (0.1 * Math.PI) / 180;
+
 /** Order of two lines: larger smallest margin first; ties by the energy margin there, then by index. */
 export function compareLines(a: LineSummary, b: LineSummary): number {
   return b.minForceAngleRad - a.minForceAngleRad || b.energyAtMinM - a.energyAtMinM || a.index - b.index;
 }
 
 export interface LineRanking {
-  /** Best first. */
+  /** Best first (within a tie: by the energy margin at the smallest force-angle, then by index). */
   readonly ranked: LineSummary[];
+  /** Rank of each line in `ranked` (1 = best); tied lines share one rank (competition ranking: 1, 1, 3). */
+  readonly rank: number[];
+  /** For each line in `ranked`, the indices (LineSummary.index) of the other lines it is tied with. */
+  readonly tiedWith: number[][];
+  /** The lines grouped by rank, best group first. */
+  readonly groups: LineSummary[][];
   readonly best: LineSummary;
   readonly worst: LineSummary;
+  /** Whether the best (worst) line shares its rank with another. */
+  readonly bestTied: boolean;
+  readonly worstTied: boolean;
+  /** The resolution used (rad): LINE_RANK_RESOLUTION_RAD. */
+  readonly resolutionRad: number;
 }
 
-/** Ranks lines by their smallest force-angle margin (a line that tips ranks at ≤ 0). Needs ≥ 1 line. */
-export function rankLines(summaries: readonly LineSummary[]): LineRanking {
+/**
+ * Ranks lines by their smallest force-angle margin (a line that tips ranks at ≤ 0), only where they
+ * differ by more than the resolution: a group starts at its best line and takes every following
+ * line within the resolution of it. Needs ≥ 1 line.
+ */
+export function rankLines(summaries: readonly LineSummary[], resolutionRad = LINE_RANK_RESOLUTION_RAD): LineRanking {
   if (summaries.length === 0) throw new Error('rankLines: no lines to rank');
   const ranked = [...summaries].sort(compareLines);
-  return { ranked, best: ranked[0], worst: ranked[ranked.length - 1] };
+  const groups: LineSummary[][] = [];
+  const rank: number[] = [];
+  for (let i = 0; i < ranked.length; i++) {
+    const g = groups[groups.length - 1];
+    if (g && g[0].minForceAngleRad - ranked[i].minForceAngleRad <= resolutionRad) {
+      g.push(ranked[i]);
+      rank.push(rank[i - 1]);
+    } else {
+      groups.push([ranked[i]]);
+      rank.push(i + 1);
+    }
+  }
+  const groupOf = new Map<number, LineSummary[]>();
+  for (const g of groups) for (const l of g) groupOf.set(l.index, g);
+  const tiedWith = ranked.map((l) => groupOf.get(l.index)!.filter((o) => o !== l).map((o) => o.index));
+  return {
+    ranked,
+    rank,
+    tiedWith,
+    groups,
+    best: ranked[0],
+    worst: ranked[ranked.length - 1],
+    bestTied: groups[0].length > 1,
+    worstTied: groups[groups.length - 1].length > 1,
+    resolutionRad,
+  };
 }
 
 /** In-process sweep: makes the lines, runs them, ranks them. */

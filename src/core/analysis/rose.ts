@@ -4,10 +4,16 @@
  * vehicle. Directions are in the vehicle frame, counter-clockwise from the nose: 0 nose down,
  * π/2 left side down, π tail down, 3π/2 right side down.
  *
+ * Each direction's tip is the end of its stable equilibrium branch (tilt.ts), with its reason, and
+ * every angle carries its datums (the table tilt, the slope from level, the tilt beyond the ground
+ * here). Where the edge the vehicle goes over changes between neighbouring directions the tip
+ * angle may change quickly; such directions are flagged (tipEdgeChanged), so a jump in the rose is
+ * explained in the data.
+ *
  * Static limits only: operating limits are far lower (common practice: makers print about 15°).
  */
-import type { Pose, TiltSweepResult, WheelName } from '../model/types';
-import { tiltSweep } from '../solver/tilt';
+import type { Pose } from '../model/types';
+import { tiltSweep, type TiltAngle, type TiltLift, type TiltSweepDetail, type TiltTip } from '../solver/tilt';
 import type { VehicleModel } from '../solver/model';
 
 const DEG = Math.PI / 180;
@@ -29,9 +35,11 @@ export interface RoseOptions {
 
 export interface RoseDirection {
   readonly downhillRad: number;
-  readonly firstLift: { readonly wheel: WheelName; readonly angleRad: number } | null;
-  readonly tip: { readonly angleRad: number; readonly edge: readonly WheelName[] } | null;
-  readonly slide: { readonly angleRad: number } | null;
+  readonly firstLift: TiltLift | null;
+  readonly tip: TiltTip | null;
+  readonly slide: TiltAngle | null;
+  /** The tip edge differs from the previous direction's (going round; the first compares with the last). */
+  readonly tipEdgeChanged: boolean;
 }
 
 export interface RoseResult {
@@ -42,10 +50,18 @@ export interface RoseResult {
   readonly weakestLift: RoseDirection;
   readonly maxAngleRad: number;
   readonly evaluations: number;
+  /** Slope of the ground under the vehicle from level at the start of the sweeps (rad): 0 on a level table. */
+  readonly groundFromLevelRad: number;
 }
 
-function summary(r: TiltSweepResult): RoseDirection {
-  return { downhillRad: r.downhillRad, firstLift: r.firstLift, tip: r.tip, slide: r.slide };
+function summary(r: TiltSweepDetail): RoseDirection {
+  return { downhillRad: r.downhillRad, firstLift: r.firstLift, tip: r.tip, slide: r.slide, tipEdgeChanged: false };
+}
+
+/** Marks each direction whose tip edge differs from the one before it (cyclically). */
+function markEdgeChanges(dirs: RoseDirection[]): RoseDirection[] {
+  const key = (d: RoseDirection) => (d.tip ? d.tip.edge.join('-') : '');
+  return dirs.map((d, i) => ({ ...d, tipEdgeChanged: dirs.length > 1 && key(d) !== key(dirs[(i + dirs.length - 1) % dirs.length]) }));
 }
 
 export function tipAngleOf(d: RoseDirection, maxAngleRad: number): number {
@@ -63,6 +79,7 @@ export function stabilityRose(model: VehicleModel, pose: Pose, opts: RoseOptions
   const n = Math.max(1, Math.round((2 * Math.PI) / step));
   const directions: RoseDirection[] = [];
   let evaluations = 0;
+  let groundFromLevelRad = 0;
   for (let i = 0; i < n; i++) {
     const r = tiltSweep(model, pose, {
       downhillRad: (2 * Math.PI * i) / n,
@@ -72,10 +89,12 @@ export function stabilityRose(model: VehicleModel, pose: Pose, opts: RoseOptions
       friction: opts.friction,
     });
     evaluations += r.evaluations;
+    groundFromLevelRad = r.startFromLevelRad;
     directions.push(summary(r));
     opts.onProgress?.(i + 1, n);
   }
-  return { directions, ...weakestOf(directions, maxAngleRad), maxAngleRad, evaluations };
+  const marked = markEdgeChanges(directions);
+  return { directions: marked, ...weakestOf(marked, maxAngleRad), maxAngleRad, evaluations, groundFromLevelRad };
 }
 
 function weakestOf(directions: readonly RoseDirection[], maxAngleRad: number): { weakest: RoseDirection; weakestLift: RoseDirection } {

@@ -1,29 +1,131 @@
 /**
  * Tilt-table sweep (as in the tilt-table procedures of SAE J2180 and ISO 16333: raise the table
- * slowly, note the angle at which the uphill wheels lift): from a start tilt, increase the tilt
- * about a fixed downhill direction, warm-starting each solve from the last, and bracket then
- * bisect each event: the first wheel to lift, the friction demand passing the ground's friction
- * (it slides), and the tip (no equilibrium remains).
+ * slowly, note the angle at which the uphill wheels lift and where it goes over), from a start
+ * tilt about a fixed downhill direction.
+ *
+ * The tip is the end of the stable equilibrium branch as the tilt grows (REFERENCES, "Stability
+ * of an equilibrium and the tip as a fold"): the sweep follows the branch by continuation (a
+ * secant predictor from the last two accepted states, Newton as the corrector, the step halved
+ * where the corrector fails or leaves the branch), and accepts a state only if it converged, is
+ * stable (the smallest eigenvalue of the tangent stiffness with the grip held is positive:
+ * stability.ts) and has its plumb line inside the support (force-angle ≥ 0). The tip is located
+ * where that stops being true, bracketed to the resolution (0.01°) from the last stable state:
+ * - 'fold': the smallest eigenvalue reaches zero (a compliant vehicle can fold before its plumb
+ *   line reaches the support edge; past a fold no equilibrium is near), or falls below
+ *   MIN_STIFFNESS_EIGEN, which is no stiffness within what the method can tell;
+ * - 'plumb-line-at-edge': the plumb line from the CG reaches the edge of the support;
+ * whichever comes first. A Newton failure is never taken as the tip on its own: a failure from a
+ * stable state more than the resolution away is retried with a smaller step, and one within the
+ * resolution of a state that is far from both criteria is stepped over with full solves.
+ * The first lift and the slide (friction demand above the ground's) are bracketed on the same
+ * stable branch, between accepted states.
+ *
+ * Datums: every angle comes as the table tilt (angleRad, the sweep's parameter), as the slope of
+ * the ground under the vehicle from level (fromLevelRad) and as the extra tilt beyond the ground
+ * as it lies at the start (beyondGroundRad = angle − start tilt: "more than the ground here").
+ * On a level table from a level start the three are equal.
  */
 import type { Pose, SolveResult, TiltSample, TiltSweepOptions, TiltSweepResult, WheelName } from '../model/types';
 import { WHEEL_NAMES } from '../model/types';
 import { DEFAULT_FRICTION, solveEquilibrium } from './equilibrium';
-import type { VehicleModel } from './model';
+import { Q_PITCH, Q_ROLL, STATE_SIZE, type VehicleModel } from './model';
 
 const DEG = Math.PI / 180;
-/** Warm-started sweep steps converge in a few iterations where an equilibrium exists; more means none is near. */
-const SWEEP_MAX_ITERATIONS = 8;
+/** Largest Newton iterations of a continuation step (a warm start on the branch needs 2–5). */
+const STEP_MAX_ITERATIONS = 15;
 /** Brackets narrower than this are searched with the quick iteration only (rad, 0.25°). */
 const QUICK_BRACKET_RAD = 0.25 * DEG;
+/**
+ * A continuation step may turn the body by at most this much more than the tilt step itself
+ * (rad): more means Newton jumped to another branch (e.g. a balance on two wheels), not followed this one.
+ */
+const BRANCH_TURN_RAD = 2 * DEG;
+/**
+ * Smallest stiffness eigenvalue (per W·L, see stability.ts) taken as none: below it the softest
+ * mode is within what the method can tell of neutral (the grip field held fixed makes the tangent
+ * stiffness an approximation; finite differences put a few thousandths of noise on it). Near a
+ * true fold the eigenvalue falls like the square root of the distance to it, so the floor moves
+ * such a tip by well under the 0.01° resolution.
+ */
+export const MIN_STIFFNESS_EIGEN = 0.01;
+/**
+ * Below this smallest eigenvalue the stance is nearly neutral: three-wheel stances of vehicles with
+ * a solid axle hover at 0.00–0.02 over several degrees of tilt (the body rolling against one axle
+ * with a wheel hanging), and where in that stretch it reaches the floor is ill-conditioned (it can
+ * move by several degrees between neighbouring directions). The tip reports where such a stretch
+ * began (softFrom), which moves smoothly.
+ */
+export const NEAR_NEUTRAL_EIGEN = 0.03;
+/** A last stable state this close to either criterion ends the branch when the next step fails (per W·L; rad). */
+const NEAR_FOLD_EIGEN = 0.03;
+const NEAR_EDGE_RAD = 0.2 * DEG;
+/**
+ * A nearly neutral stretch shorter than this before the tip is not reported (rad): near a sharp
+ * fold the eigenvalue passes NEAR_NEUTRAL_EIGEN only a few hundredths of a degree before it.
+ */
+const SOFT_STRETCH_RAD = 1 * DEG;
+/** Where a failed step lies within the resolution of a state far from both criteria, these tilts beyond it are tried with full solves. */
+const STEP_OVER_RAD = [0.03 * DEG, 0.1 * DEG, 0.5 * DEG];
+
+/** Why the stable branch ends. */
+export type TipReason =
+  /** The smallest eigenvalue of the tangent stiffness reaches zero (a fold): no stable equilibrium beyond. */
+  | 'fold'
+  /** The plumb line from the CG reaches the edge of the support. */
+  | 'plumb-line-at-edge'
+  /** No stable equilibrium at the start tilt itself. */
+  | 'does-not-stand-at-start';
+
+/** A tilt with its datums (all rad). */
+export interface TiltAngle {
+  /** Table tilt about the downhill direction: the sweep's parameter. */
+  readonly angleRad: number;
+  /** Slope of the ground under the vehicle from level at this tilt. */
+  readonly fromLevelRad: number;
+  /** Tilt beyond the ground as it lies at the start of the sweep: "more than the ground here". */
+  readonly beyondGroundRad: number;
+}
+
+export interface TiltLift extends TiltAngle {
+  readonly wheel: WheelName;
+  /** No wheel lifted on the stable branch before the tip: the wheels lift as it goes over. */
+  readonly atTip: boolean;
+}
+
+export interface TiltTip extends TiltAngle {
+  /** The tyres about whose contacts it goes over (the weakest edge at the last stable state). */
+  readonly edge: readonly WheelName[];
+  readonly reason: TipReason;
+  /** At the last stable state: smallest eigenvalue of the tangent stiffness (per W·L) and force-angle (rad). */
+  readonly lastMinEigen: number;
+  readonly lastForceAngleRad: number;
+  /**
+   * For a fold reached by the stiffness fading rather than by a sharp loss: where the stance became
+   * nearly neutral (smallest eigenvalue below NEAR_NEUTRAL_EIGEN) and stayed so up to the tip, when
+   * that began more than 1° before it. The tip then lies somewhere on that soft stretch and is not
+   * sharply defined (it can move by several degrees between neighbouring directions); treat this
+   * angle as the limit. Null otherwise.
+   */
+  readonly softFrom: TiltAngle | null;
+}
+
+/** The sweep's result: TiltSweepResult with the datums, the tip's reason and the start. */
+export interface TiltSweepDetail extends TiltSweepResult {
+  readonly firstLift: TiltLift | null;
+  readonly tip: TiltTip | null;
+  readonly slide: TiltAngle | null;
+  readonly startAngleRad: number;
+  /** Slope of the ground under the vehicle from level at the start tilt (rad). */
+  readonly startFromLevelRad: number;
+  readonly maxAngleRad: number;
+  /** Which limit the rising table reaches first: it tips, it slides, or neither up to maxAngleRad. */
+  readonly firstLimit: 'tip' | 'slide' | null;
+}
 
 function maxDemand(r: SolveResult): number {
   let d = 0;
   for (const w of r.wheels) if (!w.lifted && (w.frictionDemand ?? 0) > d) d = (w.frictionDemand ?? 0);
   return d;
-}
-
-function standing(r: SolveResult): boolean {
-  return r.status === 'converged' && r.margins.forceAngleRad >= 0;
 }
 
 function anyLifted(r: SolveResult): boolean {
@@ -50,34 +152,94 @@ export function toSample(angleRad: number, r: SolveResult): TiltSample {
   };
 }
 
-export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOptions): TiltSweepResult {
+/** Unit normal of the plane fitted to the ground under the four wheels at the model's pose (terrain frame). */
+function groundNormalHere(model: VehicleModel): [number, number, number] {
+  const c = Math.cos(model.headingRad);
+  const s = Math.sin(model.headingRad);
+  const h = [0, 0, 0, 0];
+  for (let i = 0; i < 4; i++) {
+    const ax = model.axles[i >> 1];
+    const yb = (i & 1) === 0 ? ax.trackM / 2 : -ax.trackM / 2;
+    h[i] = model.field.height(model.poseX + c * ax.xM - s * yb, model.poseY + s * ax.xM + c * yb);
+  }
+  const L = model.wheelbaseM;
+  const T = 0.5 * (model.axles[0].trackM + model.axles[1].trackM);
+  // Slopes along the body's x and y, turned into the terrain frame.
+  const gx = (h[0] + h[1] - h[2] - h[3]) / (2 * L);
+  const gy = (h[0] - h[1] + h[2] - h[3]) / (2 * T);
+  const dx = c * gx - s * gy;
+  const dy = s * gx + c * gy;
+  const n = Math.hypot(dx, dy, 1);
+  return [-dx / n, -dy / n, 1 / n];
+}
+
+/** A state accepted on the stable branch. */
+interface BranchPoint {
+  readonly angle: number;
+  readonly r: SolveResult;
+  readonly minEigen: number;
+}
+
+const _pred = new Float64Array(STATE_SIZE);
+
+/**
+ * Follows the stable equilibrium branch from the start tilt as the table rises about
+ * opts.downhillRad; see the module comment.
+ */
+export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOptions): TiltSweepDetail {
   const start = opts.startAngleRad ?? 0;
   const maxAngle = opts.maxAngleRad ?? 89 * DEG;
-  const step = opts.stepRad ?? 2 * DEG;
+  const step = opts.stepRad ?? 1 * DEG;
   const findSlide = opts.findSlide ?? true;
   const resolution = opts.resolutionRad ?? 0.01 * DEG;
   const friction = opts.friction ?? DEFAULT_FRICTION;
   const downhillRad = opts.downhillRad;
   let evaluations = 0;
-  const solveAt = (angleRad: number, warm: Float64Array | null, quick = false): SolveResult => {
-    const r = solveEquilibrium(model, pose, {
-      tilt: { angleRad, downhillRad },
-      friction,
-      warmStart: warm,
-      followBranch: true,
-      maxIterations: warm ? SWEEP_MAX_ITERATIONS : undefined,
-      quick,
-    });
+
+  const solveAt = (angleRad: number, warm: Float64Array | null, quick = false, maxIterations?: number): SolveResult => {
+    // followBranch: the sweep follows its own branch from the state it passes (the solver checks
+    // each root's stability and reports its smallest stiffness eigenvalue).
+    const r = solveEquilibrium(model, pose, { tilt: { angleRad, downhillRad }, friction, warmStart: warm, followBranch: warm !== null, maxIterations, quick });
     evaluations += r.evaluations;
     return r;
   };
+  /** Smallest stiffness eigenvalue of a balance (from the solver's own check; −∞ where it has none). */
+  const minEigenOf = (r: SolveResult): number => {
+    const e = r.stiffnessMinEigen;
+    if (e === null || Number.isNaN(e)) return -Infinity;
+    return r.status === 'unstable' ? Math.min(e, -1e-12) : e;
+  };
+  type Verdict = 'ok' | 'failed' | 'unstable' | 'outside' | 'off-branch';
+  /** Whether r at angle continues the branch from prev (null: the start). */
+  const judge = (angle: number, r: SolveResult, prev: BranchPoint | null): { verdict: Verdict; minEigen: number } => {
+    if (r.status !== 'converged' && r.status !== 'unstable') return { verdict: 'failed', minEigen: NaN };
+    if (prev) {
+      const limit = BRANCH_TURN_RAD + 2 * Math.abs(angle - prev.angle);
+      if (Math.abs(r.state[Q_ROLL] - prev.r.state[Q_ROLL]) > limit || Math.abs(r.state[Q_PITCH] - prev.r.state[Q_PITCH]) > limit) {
+        return { verdict: 'off-branch', minEigen: NaN };
+      }
+    }
+    const minEigen = minEigenOf(r);
+    if (!(minEigen > MIN_STIFFNESS_EIGEN)) return { verdict: 'unstable', minEigen };
+    if (r.margins.forceAngleRad < 0) return { verdict: 'outside', minEigen };
+    return { verdict: 'ok', minEigen };
+  };
+
+  // Datums: the ground under the vehicle at the pose, and up at a tilt.
+  model.setPose(pose.xM, pose.yM, pose.headingRad);
+  const n = groundNormalHere(model);
+  const dir = pose.headingRad + downhillRad;
+  const fromLevel = (a: number): number => {
+    const s = Math.sin(a);
+    const dot = -s * Math.cos(dir) * n[0] - s * Math.sin(dir) * n[1] + Math.cos(a) * n[2];
+    return Math.acos(Math.max(-1, Math.min(1, dot)));
+  };
+  const at = (a: number): TiltAngle => ({ angleRad: a, fromLevelRad: fromLevel(a), beyondGroundRad: a - start });
+
   /**
-   * Narrows [lo, hi] (pred false at lo, true at hi) to the resolution. With an indicator that is
-   * positive on the standing side and falls to zero at the event (the lightest wheel's load, the
-   * grip left, the force-angle margin), the next angle is the secant estimate through the last two
-   * points below the event, aimed a quarter of the resolution either side of it, so that a good
-   * estimate closes the bracket in two solves; a step that does not halve the bracket falls back
-   * to bisection (safeguarded regula falsi).
+   * Narrows [lo, hi] (pred false at lo, true at hi) to the resolution, by safeguarded regula falsi
+   * on an indicator that is positive on the lo side and falls to zero at the event (the lightest
+   * wheel's load, the grip left), solving warm from lo. Both ends lie on the stable branch.
    */
   const bisect = (
     lo: number,
@@ -85,27 +247,24 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
     hi: number,
     hiRes: SolveResult,
     pred: (r: SolveResult) => boolean,
-    indicator: ((r: SolveResult) => number) | null = null,
-    prevLo = NaN,
-    prevLoRes: SolveResult | null = null,
+    indicator: (r: SolveResult) => number,
     twoSided = false,
   ) => {
     let aimAbove = false;
-    let guided = indicator !== null;
-    /** Consecutive guided steps that landed on the same side of the event (a biased estimate). */
+    let guided = true;
     let sameSide = 0;
     let lastSideHigh: boolean | null = null;
+    let prevLo = NaN;
+    let prevLoRes: SolveResult | null = null;
     while (hi - lo > resolution) {
       let next = 0.5 * (lo + hi);
-      if (guided && indicator) {
+      if (guided) {
         let est = NaN;
         const g2 = indicator(loRes);
         if (twoSided) {
-          // Regula falsi between the two ends (the indicator is valid on both sides).
           const gh = indicator(hiRes);
           if (g2 > 0 && gh < 0) est = lo + (g2 * (hi - lo)) / (g2 - gh);
         } else if (prevLoRes && prevLo < lo) {
-          // Secant through the last two points below the event.
           const g1 = indicator(prevLoRes);
           if (g1 > g2 && g2 > 0) est = lo + (g2 * (lo - prevLo)) / (g1 - g2);
         }
@@ -113,10 +272,9 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
         if (aim > lo && aim < hi) next = aim;
       }
       const wasGuided = next !== 0.5 * (lo + hi);
-      // Inside a narrow bracket the warm start is close: a failure there is taken as it is, and
-      // once the bracket is narrow the quick iteration alone decides (a miss costs little there).
       const r = solveAt(next, loRes.state, hi - lo < QUICK_BRACKET_RAD);
-      const high = pred(r);
+      // A miss inside the bracket counts as past the event (the bracket closes on the lo side).
+      const high = r.status !== 'converged' || pred(r);
       if (high) {
         hi = next;
         hiRes = r;
@@ -128,9 +286,6 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
         loRes = r;
         aimAbove = true;
       }
-      // Safeguard: guided steps should land either side of the event in turn. Two in a row past
-      // it (the costly side: no equilibrium there) or three short of it mean a biased estimate,
-      // so bisect once before guiding again.
       if (wasGuided) {
         sameSide = lastSideHigh === high ? sameSide + 1 : 1;
         lastSideHigh = high;
@@ -138,7 +293,7 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
       } else {
         sameSide = 0;
         lastSideHigh = null;
-        guided = indicator !== null;
+        guided = true;
       }
     }
     return { angleRad: 0.5 * (lo + hi), lo, loRes, hi, hiRes };
@@ -151,8 +306,6 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
       if (best < 0 || (loRes.wheels[i].loadN ?? 0) < (loRes.wheels[best].loadN ?? 0)) best = i;
     }
     if (best < 0) {
-      for (let i = 0; i < 4; i++) if (hiRes.wheels[i].lifted) return WHEEL_NAMES[i];
-      // Nothing lifted at hi (the tip came first): the wheel with least load at lo goes first.
       best = 0;
       for (let i = 1; i < 4; i++) if ((loRes.wheels[i].loadN ?? 0) < (loRes.wheels[best].loadN ?? 0)) best = i;
     }
@@ -160,72 +313,139 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
   };
 
   const samples: TiltSample[] = [];
-  let firstLift: TiltSweepResult['firstLift'] = null;
-  let tip: TiltSweepResult['tip'] = null;
-  let slide: TiltSweepResult['slide'] = null;
+  let firstLift: TiltLift | null = null;
+  let tip: TiltTip | null = null;
+  let slide: TiltAngle | null = null;
+  const done = (): TiltSweepDetail => ({
+    downhillRad,
+    firstLift,
+    tip,
+    slide,
+    samples,
+    evaluations,
+    startAngleRad: start,
+    startFromLevelRad: fromLevel(start),
+    maxAngleRad: maxAngle,
+    firstLimit: slide && (!tip || slide.angleRad <= tip.angleRad) ? 'slide' : tip ? 'tip' : null,
+  });
 
-  let prevAngle = start;
-  let prev = solveAt(start, null);
-  let prev2Angle = NaN;
-  let prev2: SolveResult | null = null;
-  samples.push(toSample(start, prev));
-  if (!standing(prev)) {
-    return { downhillRad, firstLift, tip: { angleRad: start, edge: prev.margins.weakestEdgeWheels }, slide, samples, evaluations };
+  // The start: the reference solve (lowered onto the ground, the tilt applied progressively).
+  const r0 = solveAt(start, null);
+  const j0 = judge(start, r0, null);
+  samples.push(toSample(start, r0));
+  if (j0.verdict !== 'ok') {
+    tip = {
+      ...at(start),
+      edge: r0.margins.weakestEdgeWheels,
+      reason: 'does-not-stand-at-start',
+      lastMinEigen: j0.minEigen,
+      lastForceAngleRad: r0.margins.forceAngleRad,
+      softFrom: null,
+    };
+    return done();
   }
-  if (anyLifted(prev)) {
-    const i = prev.wheels.findIndex((w) => w.lifted);
-    firstLift = { wheel: WHEEL_NAMES[i], angleRad: start };
-  }
-  if (maxDemand(prev) > friction) slide = { angleRad: start };
+  let p1: BranchPoint = { angle: start, r: r0, minEigen: j0.minEigen };
+  let p0 = null as BranchPoint | null;
+  if (anyLifted(r0)) firstLift = { ...at(start), wheel: WHEEL_NAMES[r0.wheels.findIndex((w) => w.lifted)], atTip: false };
+  if (maxDemand(r0) > friction) slide = at(start);
 
-  while (prevAngle < maxAngle - 1e-12) {
-    let a = Math.min(prevAngle + step, maxAngle);
-    let cur = solveAt(a, prev.state);
-    if (!standing(cur) && cur.status === 'not-converged' && cur.margins.forceAngleRad > 0) {
-      // A step that merely fails to converge with the plumb line well inside the support may be
-      // a numerical miss rather than the tip: try half the step. If that stands, it becomes the
-      // next sample; if not, the tip lies below it.
-      const half = 0.5 * (prevAngle + a);
-      const mid = solveAt(half, prev.state);
-      if (standing(mid) || a - prevAngle > 4 * resolution) {
-        a = half;
-        cur = mid;
+  /** Smallest tilt known (or taken) to lie past the end of the branch, and what was found there. */
+  let hi = Infinity;
+  let hiVerdict: Verdict = 'failed';
+  let hiRes: SolveResult | null = null;
+  let stepsOver = 0;
+  /** First accepted tilt of the current nearly neutral stretch (NaN: not in one). */
+  let softSince = j0.minEigen < NEAR_NEUTRAL_EIGEN ? start : NaN;
+  while (p1.angle < maxAngle - 1e-12) {
+    if (hi - p1.angle <= resolution) {
+      // The branch ends within the resolution past p1, unless the failure there was numerical:
+      // p1 far from both criteria and a plain Newton miss. Then step over it with full solves.
+      const nearEnd = p1.minEigen < NEAR_FOLD_EIGEN || p1.r.margins.forceAngleRad < NEAR_EDGE_RAD || hiVerdict === 'unstable' || hiVerdict === 'outside';
+      let over: BranchPoint | null = null;
+      if (!nearEnd && stepsOver < 3) {
+        stepsOver++;
+        for (const d of STEP_OVER_RAD) {
+          const a = Math.min(p1.angle + d, maxAngle);
+          const r = solveAt(a, p1.r.state);
+          const j = judge(a, r, p1);
+          if (j.verdict === 'ok') {
+            over = { angle: a, r, minEigen: j.minEigen };
+            break;
+          }
+        }
       }
-    }
-    if (standing(cur)) {
-      if (!firstLift && anyLifted(cur)) {
-        const b = bisect(prevAngle, prev, a, cur, anyLifted, lightestLoad, prev2Angle, prev2);
-        firstLift = { wheel: liftedWheel(b.loRes, b.hiRes), angleRad: b.angleRad };
-      }
-      if (findSlide && !slide && maxDemand(cur) > friction) {
-        const b = bisect(prevAngle, prev, a, cur, (r) => standing(r) && maxDemand(r) > friction, (r) => friction - maxDemand(r), prev2Angle, prev2, true);
-        slide = { angleRad: b.angleRad };
-      }
-      samples.push(toSample(a, cur));
-      prev2Angle = prevAngle;
-      prev2 = prev;
-      prevAngle = a;
-      prev = cur;
+      if (!over) break;
+      accept(over);
+      hi = Infinity;
       continue;
     }
-    // No equilibrium at a: bisect for the tip.
-    const b = bisect(prevAngle, prev, a, cur, (r) => !standing(r), (r) => r.margins.forceAngleRad, prev2Angle, prev2);
-    tip = { angleRad: b.angleRad, edge: b.loRes.margins.weakestEdgeWheels };
-    if (!firstLift) {
-      // Every lift came with the tip (a stiff vehicle): the wheels lift as it goes over.
-      if (anyLifted(b.loRes)) {
-        const lifted = bisect(prevAngle, prev, b.lo, b.loRes, anyLifted, lightestLoad, prev2Angle, prev2);
-        firstLift = { wheel: liftedWheel(lifted.loRes, lifted.hiRes), angleRad: lifted.angleRad };
-      } else {
-        firstLift = { wheel: liftedWheel(b.loRes, b.loRes), angleRad: b.angleRad };
-      }
+    // Full steps while no end is known; halving the bracket [p1, hi] once one is.
+    const trial = hi === Infinity ? Math.min(p1.angle + step, maxAngle) : p1.angle + 0.5 * (hi - p1.angle);
+    // Predictor: the secant through the last two accepted states.
+    const x1 = p1.r.state;
+    if (p0 && p1.angle > p0.angle) {
+      const f = (trial - p1.angle) / (p1.angle - p0.angle);
+      const x0 = p0.r.state;
+      for (let k = 0; k < STATE_SIZE; k++) _pred[k] = x1[k] + f * (x1[k] - x0[k]);
+    } else _pred.set(x1);
+    let r = solveAt(trial, _pred, false, STEP_MAX_ITERATIONS);
+    let j = judge(trial, r, p1);
+    if (j.verdict === 'failed' || j.verdict === 'off-branch') {
+      // The predictor may overshoot where the branch bends (a wheel lifting): try from p1 itself.
+      r = solveAt(trial, x1, false, STEP_MAX_ITERATIONS);
+      j = judge(trial, r, p1);
     }
-    if (findSlide && !slide && maxDemand(b.loRes) > friction) {
-      const s = bisect(prevAngle, prev, b.lo, b.loRes, (r) => maxDemand(r) > friction, (r) => friction - maxDemand(r), prev2Angle, prev2, true);
-      slide = { angleRad: s.angleRad };
+    if (j.verdict === 'ok') {
+      accept({ angle: trial, r, minEigen: j.minEigen });
+      continue;
     }
-    samples.push(toSample(b.lo, b.loRes));
-    break;
+    hi = trial;
+    hiVerdict = j.verdict;
+    hiRes = r;
   }
-  return { downhillRad, firstLift, tip, slide, samples, evaluations };
+
+  if (hi !== Infinity) {
+    const lo = p1;
+    let reason: TipReason;
+    if (hiVerdict === 'outside') reason = 'plumb-line-at-edge';
+    else if (hiVerdict === 'unstable') reason = hiRes && hiRes.margins.forceAngleRad < 0 && lo.r.margins.forceAngleRad < NEAR_EDGE_RAD ? 'plumb-line-at-edge' : 'fold';
+    else reason = lo.r.margins.forceAngleRad < NEAR_EDGE_RAD ? 'plumb-line-at-edge' : 'fold';
+    const tipAngle = 0.5 * (lo.angle + hi);
+    tip = {
+      ...at(tipAngle),
+      edge: lo.r.margins.weakestEdgeWheels,
+      reason,
+      lastMinEigen: lo.minEigen,
+      lastForceAngleRad: lo.r.margins.forceAngleRad,
+      softFrom: reason === 'fold' && !Number.isNaN(softSince) && tipAngle - softSince > SOFT_STRETCH_RAD ? at(softSince) : null,
+    };
+    if (!firstLift) {
+      firstLift = { ...at(tipAngle), wheel: liftedWheel(lo.r, hiRes && hiRes.status === 'converged' ? hiRes : lo.r), atTip: true };
+    }
+  }
+  return done();
+
+  /** Takes a state onto the branch, bracketing the lift and slide between it and the last one. */
+  function accept(next: BranchPoint): void {
+    const prev = p1;
+    if (!firstLift && anyLifted(next.r)) {
+      const b = bisect(prev.angle, prev.r, next.angle, next.r, anyLifted, lightestLoad);
+      firstLift = { ...at(b.angleRad), wheel: liftedWheel(b.loRes, b.hiRes), atTip: false };
+    }
+    if (findSlide && !slide && maxDemand(next.r) > friction) {
+      const b = bisect(prev.angle, prev.r, next.angle, next.r, (r) => maxDemand(r) > friction, (r) => friction - maxDemand(r), true);
+      slide = at(b.angleRad);
+    }
+    samples.push(toSample(next.angle, next.r));
+    if (next.minEigen >= NEAR_NEUTRAL_EIGEN) softSince = NaN;
+    else if (Number.isNaN(softSince)) {
+      // The stretch began in this step: at the lift if one came in it (a wheel lifting drops the
+      // stiffness at once), else where the eigenvalue crossed the threshold (linearly).
+      const liftHere = firstLift && !firstLift.atTip && firstLift.angleRad > prev.angle && firstLift.angleRad <= next.angle;
+      const f = (prev.minEigen - NEAR_NEUTRAL_EIGEN) / (prev.minEigen - next.minEigen);
+      softSince = liftHere ? firstLift!.angleRad : prev.angle + Math.max(0, Math.min(1, f)) * (next.angle - prev.angle);
+    }
+    p0 = prev;
+    p1 = next;
+  }
 }
