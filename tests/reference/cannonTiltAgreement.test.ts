@@ -61,7 +61,7 @@ const VEHICLES: [string, Vehicle][] = [
 ];
 const DIRECTIONS_DEG = [0, 45, 90, 135, 165, 200, 270, 315];
 
-describe('quasi-static tip vs the cannon-es tilt ramp (within 1°)', () => {
+describe('quasi-static tip vs the cannon-es tilt ramp (within 1°)', { timeout: 240_000 }, () => {
   for (const [name, v] of VEHICLES) {
     it(`${name}: 8 directions`, () => {
       const model = buildModel(v, { features: [] });

@@ -34,7 +34,7 @@ function tipDeg(v: Vehicle, downhillDeg: number, opts: Parameters<typeof tiltRam
   return (r.tipRad as number) / DEG;
 }
 
-describe('cannon-es tilt ramp against the rigid closed forms', () => {
+describe('cannon-es tilt ramp against the rigid closed forms', { timeout: 240_000 }, () => {
   // Test rig: T 1.6 m, h 0.75 m, a 1.3 m, b 1.5 m (tests/helpers/vehicles.ts).
   it('left side down: goes over at atan(T/2h) (SSF, NHTSA), within 0.5° below', () => {
     const closed = Math.atan(0.8 / 0.75) / DEG; // 46.848°
@@ -69,7 +69,7 @@ describe('cannon-es tilt ramp against the rigid closed forms', () => {
   });
 });
 
-describe('cannon-es tilt ramp is quasi-static', () => {
+describe('cannon-es tilt ramp is quasi-static', { timeout: 240_000 }, () => {
   // The compliant test rig (40 kN/m corners, 300 kN/m tyres), two diagonal directions where a
   // wheel lifts well before the tip (the hardest case for a ramp: the body walks on three wheels).
   for (const downhillDeg of [45, 165]) {

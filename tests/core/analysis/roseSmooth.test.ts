@@ -60,7 +60,7 @@ for (const f of readdirSync(DIR).filter((x) => x.endsWith('.json')).sort()) {
   else vehicles.set(key, { files: [f], vehicle: parsed.scenario.vehicle, friction: parsed.scenario.friction });
 }
 
-describe('demo roses are smooth', () => {
+describe('demo roses are smooth', { timeout: 240_000 }, () => {
   for (const { files, vehicle, friction } of vehicles.values()) {
     it(`${files.join(', ')}: adjacent 5° directions differ by < 2° + 2 × the rigid change, or flag an edge change or a soft stretch`, () => {
       const rose = stabilityRose(buildModel(vehicle, { features: [] }), { xM: 0, yM: 0, headingRad: 0 }, { friction, resolutionRad: 0.05 * DEG });

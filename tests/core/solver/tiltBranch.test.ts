@@ -47,7 +47,7 @@ function sweep(v: Vehicle, downhillDeg: number, stepDeg = 1): TiltSweepDetail {
   return tiltSweep(buildModel(v, FLAT), POSE, { downhillRad: downhillDeg * DEG, stepRad: stepDeg * DEG, findSlide: false });
 }
 
-describe('tip continuity in the downhill direction', () => {
+describe('tip continuity in the downhill direction', { timeout: 240_000 }, () => {
   // Two vehicles, each over a run of directions that crosses a change of tip edge, a region where
   // a wheel lifts well before the tip (three-wheel folds), and a side.
   const cases: [string, Vehicle, number, number, boolean][] = [
@@ -82,7 +82,7 @@ describe('tip continuity in the downhill direction', () => {
   }
 });
 
-describe('step independence', () => {
+describe('step independence', { timeout: 240_000 }, () => {
   // Halving the sweep's coarse step moves the first lift and the tip by < 0.05°.
   const vehicles: [string, Vehicle][] = [
     ['test rig', testVehicle()],
@@ -101,7 +101,7 @@ describe('step independence', () => {
   }
 });
 
-describe('no tip beyond the rigid bound, and an uphill wheel lifts first', () => {
+describe('no tip beyond the rigid bound, and an uphill wheel lifts first', { timeout: 240_000 }, () => {
   it('random vehicles, tall and narrow included (track 0.1–2 m, CG 0.4–10 m, roll centres below the CG)', () => {
     const arb = fc.record({
       trackM: fc.double({ min: 0.1, max: 2, noNaN: true }),
@@ -176,7 +176,7 @@ describe('no tip beyond the rigid bound, and an uphill wheel lifts first', () =>
   });
 });
 
-describe('datums', () => {
+describe('datums', { timeout: 240_000 }, () => {
   it('on a level table the tilt, the slope from level and the tilt beyond the ground are one angle', () => {
     const r = sweep(testVehicle(), 90);
     for (const e of [r.tip!, r.firstLift!]) {
