@@ -19,6 +19,25 @@ export {
   type ScenarioFileSchema,
 } from './schema';
 export {
+  VEHICLE_FIELDS,
+  TYRE_FIELDS,
+  AXLE_FIELDS,
+  BODY_FIELDS,
+  PAYLOAD_FIELDS,
+  FEATURE_FIELDS,
+  POSE_FIELDS,
+  TILT_FIELDS,
+  PATH_FIELDS,
+  GROUND_FIELDS,
+  PHYSICAL_MIN,
+  fileNumber,
+  fixedUnitNumber,
+  snapToFileUnit,
+  type FieldRow,
+  type NumberRow,
+  type Bound,
+} from './fields';
+export {
   M_PER_IN,
   M_PER_FT,
   KG_PER_LB,

@@ -54,6 +54,13 @@ function everythingFile(units: 'metric' | 'imperial' = 'metric'): Record<string,
   o.tilt = { angle: 17.5, downhill: 225 };
   o.path = { from: [-2, 0.1], to: [18, 0.3], step: 0.1, heading: 3 };
   o.ground = { friction: 0.55 };
+  if (units === 'imperial') {
+    // The chassis in inches (an imperial file of the same build), above the physical lower bounds.
+    Object.assign(o.vehicle, { wheelbase: 110, track: { front: 63, rear: 63 } });
+    Object.assign(o.vehicle.cg, { behindFrontAxle: 52, height: 29.5 });
+    o.vehicle.tyre = { radius: 15, width: 10, stiffness: 1700 };
+    o.vehicle.tyreRear = { radius: 15.75, width: 10.6, stiffness: 1750 };
+  }
   return o;
 }
 
