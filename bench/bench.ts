@@ -16,6 +16,8 @@ import { DEFAULT_TYRE_MODEL, TyreContact, calibrateTyre, evaluateTyre, makeTyreL
 import { runLinesParallel } from '../src/cli/parallel';
 import { settleWithCannon } from '../src/reference/cannonSettle';
 import { testVehicle } from '../tests/helpers/vehicles';
+import type { Scenario } from '../src/core/scenario/types';
+import { validate, withField, type FieldSpec } from '../src/app/edit';
 import {
   type Figure,
   type Machine,
@@ -67,6 +69,7 @@ export const TARGETS: readonly Target[] = [
   { name: 'settle.ratio', op: '>=', bound: 100, unit: '×' },
   { name: 'settle.loadDiff', op: '<=', bound: 0.02, unit: 'of weight' },
   { name: 'grid.4096vs64', op: '<=', bound: 1.5, unit: '×' },
+  { name: 'edit.field.grid1000vsPlane', op: '<=', bound: 1.5, unit: '×' },
 ];
 
 /** Figure names every run produces (lines.* may be "not available" until the analysis module lands). */
@@ -84,6 +87,9 @@ export const FIGURE_NAMES = [
   'settle.ratio',
   'settle.loadDiff',
   'grid.4096vs64',
+  'edit.field.plane',
+  'edit.field.grid1000',
+  'edit.field.grid1000vsPlane',
 ] as const;
 
 const US_PER_MS = 1000;
@@ -429,6 +435,25 @@ export async function runBench(opts: BenchOptions = {}): Promise<BenchReport> {
     };
     measureTyre('growth.slices.6vs3', { ...DEFAULT_TYRE_MODEL, slices: 6 }, '6 slices vs 3 (springs 2.5°)');
     measureTyre('growth.springs.1.25vs2.5deg', { ...DEFAULT_TYRE_MODEL, springSpacingRad: 1.25 * DEG }, 'springs every 1.25° vs 2.5° (3 slices)');
+  }
+
+  // --- 7. One field edited in the app (edit.ts: the candidate with the new value, then the field
+  // table's checks and the cross-field rules on the SI form), on a plane and on a 1000² grid.
+  {
+    const plane: Scenario = { ...demo, terrain: { features: [{ type: 'plane', gradeRad: 0, crossSlopeRad: 0, heightM: 0 }] } };
+    const grid: Scenario = { ...demo, terrain: heightGrid(1000) };
+    const spec: FieldSpec = { label: 'Mass as weighed', si: ['vehicle', 'massKg'], file: 'vehicle.mass', kind: 'mass' };
+    let accepted = 0;
+    const keystroke = (s: Scenario) => (k: number) => {
+      // Alternate between two valid masses (a typed digit and its correction).
+      const cand = withField(s, spec, s.vehicle.massKg + (k & 1), s.units);
+      if (validate(cand, s.units).ok) accepted++;
+    };
+    const t = timePaired(keystroke(plane), keystroke(grid), P.micro(400));
+    const us = (ms: number[]) => ms.map((x) => x * US_PER_MS);
+    push(figure('edit.field.plane', us(t.a), 'µs', `one vehicle field edited and checked (withField + validate) on the demo with a plane; ${accepted > 0 ? 'accepted' : 'NOTHING ACCEPTED'}`));
+    push(figure('edit.field.grid1000', us(t.b), 'µs', 'the same edit on the demo with a 1000² height grid (1 M heights)'));
+    push(figure('edit.field.grid1000vsPlane', ratios(t.b, t.a), '×', 'edit on the 1000² grid / edit on the plane, run by run'));
   }
 
   return { machine: atStart, quick, figures, settle };

@@ -2,6 +2,7 @@
 export type { Scenario, ScenarioError, ParseResult, UnitSystem } from './types';
 export { parseScenario, parseScenarioText, defaultBodyShape, SCENARIO_DEFAULTS } from './parse';
 export { scenarioToFile, type ScenarioFileObject } from './write';
+export { checkScenarioSI, boundProblem } from './checkSI';
 export { buildsToSI, buildsToFile, buildsCrossChecks } from './builds';
 export {
   scenarioFileSchema,

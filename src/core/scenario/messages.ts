@@ -79,3 +79,8 @@ const CONTROL_NAMES: Readonly<Record<number, string>> = {
   0x9b: 'CSI',
   0x9d: 'OSC',
 };
+
+/** The message for a number outside one of its bounds: "must be ≥ 10000 N/m, got 5e-324". */
+export function boundMessage(op: string, bound: number, unit: string, got: unknown): string {
+  return `must be ${op} ${withUnit(bound, unit)}, got ${describeValue(got)}`;
+}

@@ -193,8 +193,11 @@ function isUnder(path: string, prefix: string): boolean {
   );
 }
 
-/** Checks across fields, on the plain data, for fields that are themselves valid. */
-function crossChecks(data: unknown, units: UnitSystem, errors: ScenarioError[]): void {
+/**
+ * Checks across fields, on the plain data, for fields that are themselves valid. Also run on the
+ * small file view of an edited scenario (checkSI.ts), so the rules exist once.
+ */
+export function crossChecks(data: unknown, units: UnitSystem, errors: ScenarioError[]): void {
   const bad = new Set(errors.map((e) => e.path));
   const L = unitLabel('length', units);
   const M = unitLabel('mass', units);

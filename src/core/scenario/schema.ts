@@ -39,7 +39,7 @@ import {
   type FieldRow,
   type QuantityKind,
 } from './fields';
-import { controlCharProblem, describeValue, withUnit } from './messages';
+import { boundMessage, controlCharProblem, describeValue, withUnit } from './messages';
 
 export { FEATURE_TYPES, PLAUSIBLE };
 
@@ -96,7 +96,7 @@ export function buildScenarioSchema(u: UnitSystem) {
       const v = metricToFileUnits(kind, metricValue, u);
       const params = {
         abort: true,
-        error: (iss: RawIssue) => `must be ${op} ${withUnit(v, unit)}, got ${describeValue(iss.input)}`,
+        error: (iss: RawIssue) => boundMessage(op, v, unit, iss.input),
       };
       if (op === '>') s = s.gt(v, params);
       else if (op === '≥') s = s.gte(v, params);
