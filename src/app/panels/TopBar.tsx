@@ -14,7 +14,8 @@ export function TopBar() {
 
   const exportFile = (): void => {
     const st = store.getState();
-    const text = JSON.stringify(scenarioToFile(st.scenario, st.units), null, 2);
+    // A file keeps its own units (the display units are a view of it).
+    const text = JSON.stringify(scenarioToFile(st.scenario), null, 2);
     const url = URL.createObjectURL(new Blob([text], { type: 'application/json' }));
     const a = document.createElement('a');
     a.href = url;
