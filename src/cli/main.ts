@@ -3,7 +3,7 @@
  * Exit codes: 0 success, 2 bad input (usage, invalid scenario), 1 anything else. Never an
  * uncaught exception: every failure is printed as `plumbline: <message>`.
  */
-import { readFileSync, realpathSync } from 'node:fs';
+import { readFileSync, realpathSync, statSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { EXIT_BAD_INPUT, EXIT_FAILURE, EXIT_OK, UsageError, type CliIO } from './command';
 import { commandHelp, parseArgs } from './args';
@@ -17,6 +17,8 @@ export const processIO: CliIO = {
   out: (line) => void process.stdout.write(`${line}\n`),
   err: (line) => void process.stderr.write(`${line}\n`),
   readFile: (path) => readFileSync(path, 'utf8'),
+  fileSize: (path) => statSync(path).size,
+  readBytes: (path) => readFileSync(path),
 };
 
 export function mainHelp(): string {

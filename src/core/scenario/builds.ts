@@ -21,6 +21,9 @@ import type { ScenarioError, UnitSystem } from './types';
 import type { ScenarioFileData } from './schema';
 import { M_PER_IN, M_PER_MM, PAYLOAD_FIELDS, fileNumber, fixedUnitNumber, rowsToFile, rowsToSI, toSI } from './fields';
 
+/** Build names the comparison uses for its own columns (compared trimmed, in any case). */
+export const RESERVED_BUILD_NAMES: readonly string[] = ['as given'];
+
 type Plain = Record<string, unknown>;
 const own = (o: unknown, k: string): unknown =>
   o !== null && typeof o === 'object' && !Array.isArray(o) && Object.prototype.hasOwnProperty.call(o, k) ? (o as Plain)[k] : undefined;
@@ -33,7 +36,9 @@ export function buildsCrossChecks(data: unknown, errors: ScenarioError[]): void 
   builds.forEach((b, i) => {
     const p = `builds[${i}]`;
     const name = own(b, 'name');
-    if (typeof name === 'string') {
+    if (typeof name === 'string' && RESERVED_BUILD_NAMES.includes(name.trim().toLowerCase())) {
+      errors.push({ path: `${p}.name`, message: `${JSON.stringify(name)} is reserved for the vehicle without modifications (the first column of a comparison); choose another name` });
+    } else if (typeof name === 'string') {
       if (names.has(name)) errors.push({ path: `${p}.name`, message: `must differ from builds[${names.get(name)}].name, got ${JSON.stringify(name)}` });
       else names.set(name, i);
     }

@@ -1,6 +1,7 @@
 /** Scenario files: schema, validation, unit conversion, and writing back. */
 export type { Scenario, ScenarioError, ParseResult, UnitSystem } from './types';
-export { parseScenario, parseScenarioText, defaultBodyShape, SCENARIO_DEFAULTS } from './parse';
+export { parseScenario, parseScenarioText, parseScenarioBytes, defaultBodyShape, SCENARIO_DEFAULTS } from './parse';
+export { fileSizeProblem, decodeScenarioBytes, readScenarioJson, scanScenarioJson, type ReadResult } from './read';
 export { scenarioToFile, type ScenarioFileObject } from './write';
 export { checkScenarioSI, boundProblem } from './checkSI';
 export { buildsToSI, buildsToFile, buildsCrossChecks } from './builds';

@@ -39,6 +39,7 @@ import {
   type FieldRow,
 } from './fields';
 import { buildsCrossChecks, buildsToSI } from './builds';
+import { decodeScenarioBytes, readScenarioJson } from './read';
 
 /**
  * Defaults for optional fields, in metric file units (m, deg). Applied only in `toScenario`.
@@ -450,45 +451,27 @@ export function parseScenario(input: unknown): ParseResult {
   }
 }
 
-/** Line and column (1-based) of a character offset. */
-function lineColumn(text: string, offset: number): { line: number; column: number } {
-  let line = 1;
-  let last = -1;
-  for (let i = 0; i < offset && i < text.length; i++) {
-    if (text.charCodeAt(i) === 10) {
-      line++;
-      last = i;
-    }
-  }
-  return { line, column: offset - last };
-}
-
-/** Validate a scenario file's text (JSON). Never throws; a syntax error is one error at "(file)". */
+/**
+ * Validate a scenario file's text (JSON). Never throws; a syntax error, a duplicate key or a file
+ * past the size limit is one error at its place ("(file)" or the key's path).
+ */
 export function parseScenarioText(text: string): ParseResult {
   try {
     if (typeof text !== 'string') {
       return { ok: false, errors: [{ path: '(file)', message: `must be text, got ${describeValue(text)}` }] };
     }
-    if (text.length > SCENARIO_LIMITS.fileChars) {
-      return {
-        ok: false,
-        errors: [{ path: '(file)', message: `must be at most ${SCENARIO_LIMITS.fileChars} characters, got ${text.length}` }],
-      };
-    }
-    const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
-    let data: unknown;
-    try {
-      data = JSON.parse(body);
-    } catch (e) {
-      const why = e instanceof Error ? e.message : String(e);
-      const at = /position (\d+)/.exec(why);
-      const where = at ? (() => {
-        const lc = lineColumn(body, Number(at[1]));
-        return ` at line ${lc.line}, column ${lc.column}`;
-      })() : '';
-      return { ok: false, errors: [{ path: '(file)', message: `not valid JSON${where}: ${why}` }] };
-    }
-    return parseScenario(data);
+    const read = readScenarioJson(text);
+    return read.ok ? parseScenario(read.value) : { ok: false, errors: read.errors };
+  } catch (e) {
+    return internalError(e);
+  }
+}
+
+/** Validate a scenario file's bytes: the size limit first, then the encoding (read.ts), then as text. */
+export function parseScenarioBytes(bytes: Uint8Array): ParseResult {
+  try {
+    const decoded = decodeScenarioBytes(bytes);
+    return decoded.ok ? parseScenarioText(decoded.value) : { ok: false, errors: decoded.errors };
   } catch (e) {
     return internalError(e);
   }

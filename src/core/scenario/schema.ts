@@ -74,6 +74,8 @@ export const SCENARIO_LIMITS = {
   notesChars: 20_000,
   /** Characters in a scenario file (parseScenarioText): a full grid with 6-digit heights fits. */
   fileChars: 128 * 1024 * 1024,
+  /** Bytes in a scenario file, checked from the file's size before it is read (app and CLI). */
+  fileBytes: 128 * 1024 * 1024,
 } as const;
 
 /** The raw issue as zod hands it to a schema's error function. */
