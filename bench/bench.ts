@@ -6,7 +6,7 @@
 import { makeLines } from '../src/core/analysis/lines';
 import { type PassResult, runPass } from '../src/core/analysis/pass';
 import { type RoseResult, stabilityRose } from '../src/core/analysis/rose';
-import type { PathSpec, Pose, SolveResult, Terrain, TyreModelOptions, Vehicle } from '../src/core/model/types';
+import type { PathSpec, Pose, SolveResult, TyreModelOptions } from '../src/core/model/types';
 import { buildModel, solveEquilibrium } from '../src/core/solver/equilibrium';
 import type { VehicleModel } from '../src/core/solver/model';
 import { STATE_SIZE } from '../src/core/solver/model';
@@ -394,6 +394,8 @@ export async function runBench(opts: BenchOptions = {}): Promise<BenchReport> {
       abs.push(`${n}²: ${per(summarise(t.b).median)} ms`);
       if (n === sizes[0]) abs.unshift(`64²: ${per(summarise(t.a).median)} ms`);
       push(figure(`grid.${n}vs64`, ratios(t.b, t.a), '×', `cold solve on a ${n}² grid (0.1 m spacing) / the same on 64²; same ground under the vehicle`));
+      // Drop the 4096² model before the next size is built (memory, not logic).
+      // eslint-disable-next-line no-useless-assignment
       big = null;
     }
     const last = figures[figures.length - 1];

@@ -22,7 +22,7 @@ async function cli(...argv: string[]): Promise<{ code: number; out: string; err:
   return { code, out: out.join('\n'), err: err.join('\n') };
 }
 
-async function json(...argv: string[]): Promise<any> { // eslint-disable-line @typescript-eslint/no-explicit-any
+async function json(...argv: string[]): Promise<any> {
   const r = await cli(...argv, '--json');
   expect(r.code, `${argv.join(' ')}: ${r.err}`).toBe(0);
   return JSON.parse(r.out);

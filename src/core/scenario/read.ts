@@ -49,7 +49,11 @@ export function decodeScenarioBytes(bytes: Uint8Array): ReadResult<string> {
     const n = Math.min(bytes.length, 1024);
     let evenZero = 0;
     let oddZero = 0;
-    for (let i = 0; i < n; i++) if (bytes[i] === 0) (i % 2 === 0 ? evenZero++ : oddZero++);
+    for (let i = 0; i < n; i++) {
+      if (bytes[i] !== 0) continue;
+      if (i % 2 === 0) evenZero++;
+      else oddZero++;
+    }
     if (evenZero + oddZero > 0) {
       const kind = oddZero > evenZero ? 'UTF-16 little-endian' : evenZero > oddZero ? 'UTF-16 big-endian' : 'binary data';
       return fail(
@@ -194,6 +198,7 @@ export function scanScenarioJson(text: string): ScenarioError[] {
 
 /** Control characters in a message (from a JSON error that quotes the file) shown as \u escapes. */
 function escapeControls(s: string): string {
+  // eslint-disable-next-line no-control-regex -- matching control characters is the point here
   return s.replace(/[\u0000-\u001f\u007f-\u009f]/g, (ch) => `\\u${ch.charCodeAt(0).toString(16).padStart(4, '0')}`);
 }
 

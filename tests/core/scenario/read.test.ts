@@ -9,7 +9,6 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import {
   SCENARIO_LIMITS,
-  decodeScenarioBytes,
   fileSizeProblem,
   parseScenario,
   parseScenarioBytes,
@@ -145,6 +144,7 @@ describe('encodings', () => {
   it('a JSON error never echoes a control character raw', () => {
     const r = parseScenarioText('{"name": "a"\u0007}');
     expect(r.ok).toBe(false);
+    // eslint-disable-next-line no-control-regex -- looking for control characters is the point here
     for (const m of messages(r)) expect(m).not.toMatch(/[\u0000-\u001f\u007f-\u009f]/);
   });
 });
