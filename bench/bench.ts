@@ -6,7 +6,7 @@
 import { makeLines } from '../src/core/analysis/lines';
 import { type PassResult, runPass } from '../src/core/analysis/pass';
 import { type RoseResult, stabilityRose } from '../src/core/analysis/rose';
-import type { PathSpec, Pose, SolveResult, Terrain, TyreModelOptions, Vehicle } from '../src/core/model/types';
+import type { PathSpec, Pose, SolveResult, TyreModelOptions } from '../src/core/model/types';
 import { buildModel, solveEquilibrium } from '../src/core/solver/equilibrium';
 import type { VehicleModel } from '../src/core/solver/model';
 import { STATE_SIZE } from '../src/core/solver/model';
@@ -17,6 +17,8 @@ import { DEFAULT_TYRE_MODEL, TyreContact, calibrateTyre, evaluateTyre, makeTyreL
 import { runLinesParallel } from '../src/cli/parallel';
 import { settleWithCannon } from '../src/reference/cannonSettle';
 import { testVehicle } from '../tests/helpers/vehicles';
+import type { Scenario } from '../src/core/scenario/types';
+import { validate, withField, type FieldSpec } from '../src/app/edit';
 import {
   type Figure,
   type Machine,
@@ -68,6 +70,7 @@ export const TARGETS: readonly Target[] = [
   { name: 'settle.ratio', op: '>=', bound: 100, unit: '×' },
   { name: 'settle.loadDiff', op: '<=', bound: 0.02, unit: 'of weight' },
   { name: 'grid.4096vs64', op: '<=', bound: 1.5, unit: '×' },
+  { name: 'edit.field.grid1000vsPlane', op: '<=', bound: 1.5, unit: '×' },
 ];
 
 /** Figure names every run produces (lines.* may be "not available" until the analysis module lands). */
@@ -87,6 +90,9 @@ export const FIGURE_NAMES = [
   'settle.ratio',
   'settle.loadDiff',
   'grid.4096vs64',
+  'edit.field.plane',
+  'edit.field.grid1000',
+  'edit.field.grid1000vsPlane',
 ] as const;
 
 const US_PER_MS = 1000;
@@ -424,6 +430,8 @@ export async function runBench(opts: BenchOptions = {}): Promise<BenchReport> {
       abs.push(`${n}²: ${per(summarise(t.b).median)} ms`);
       if (n === sizes[0]) abs.unshift(`64²: ${per(summarise(t.a).median)} ms`);
       push(figure(`grid.${n}vs64`, ratios(t.b, t.a), '×', `cold solve on a ${n}² grid (0.1 m spacing) / the same on 64²; same ground under the vehicle`));
+      // Drop the 4096² model before the next size is built (memory, not logic).
+      // eslint-disable-next-line no-useless-assignment
       big = null;
     }
     const last = figures[figures.length - 1];
@@ -465,6 +473,25 @@ export async function runBench(opts: BenchOptions = {}): Promise<BenchReport> {
     };
     measureTyre('growth.slices.6vs3', { ...DEFAULT_TYRE_MODEL, slices: 6 }, '6 slices vs 3 (springs 2.5°)');
     measureTyre('growth.springs.1.25vs2.5deg', { ...DEFAULT_TYRE_MODEL, springSpacingRad: 1.25 * DEG }, 'springs every 1.25° vs 2.5° (3 slices)');
+  }
+
+  // --- 7. One field edited in the app (edit.ts: the candidate with the new value, then the field
+  // table's checks and the cross-field rules on the SI form), on a plane and on a 1000² grid.
+  {
+    const plane: Scenario = { ...demo, terrain: { features: [{ type: 'plane', gradeRad: 0, crossSlopeRad: 0, heightM: 0 }] } };
+    const grid: Scenario = { ...demo, terrain: heightGrid(1000) };
+    const spec: FieldSpec = { label: 'Mass as weighed', si: ['vehicle', 'massKg'], file: 'vehicle.mass', kind: 'mass' };
+    let accepted = 0;
+    const keystroke = (s: Scenario) => (k: number) => {
+      // Alternate between two valid masses (a typed digit and its correction).
+      const cand = withField(s, spec, s.vehicle.massKg + (k & 1), s.units);
+      if (validate(cand, s.units).ok) accepted++;
+    };
+    const t = timePaired(keystroke(plane), keystroke(grid), P.micro(400));
+    const us = (ms: number[]) => ms.map((x) => x * US_PER_MS);
+    push(figure('edit.field.plane', us(t.a), 'µs', `one vehicle field edited and checked (withField + validate) on the demo with a plane; ${accepted > 0 ? 'accepted' : 'NOTHING ACCEPTED'}`));
+    push(figure('edit.field.grid1000', us(t.b), 'µs', 'the same edit on the demo with a 1000² height grid (1 M heights)'));
+    push(figure('edit.field.grid1000vsPlane', ratios(t.b, t.a), '×', 'edit on the 1000² grid / edit on the plane, run by run'));
   }
 
   return { machine: atStart, quick, figures, settle };

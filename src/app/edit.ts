@@ -1,9 +1,10 @@
 /**
- * Editing the SI scenario field by field. A candidate is validated by writing it to the file
- * form and parsing it (the same rules as an imported file); when valid, the candidate itself is
- * kept, so fields that were not touched are never converted or rounded.
+ * Editing the SI scenario field by field. A candidate is checked on its SI form against the
+ * scenario's field table and cross-field rules (checkScenarioSI: the same rules and messages as an
+ * imported file, at a cost that does not grow with the terrain); when valid, the candidate itself
+ * is kept, so fields that were not touched are never converted or rounded.
  */
-import { parseScenario, scenarioToFile, type QuantityKind, type Scenario, type ScenarioError } from '../core';
+import { checkScenarioSI, snapToFileUnit, type QuantityKind, type Scenario, type ScenarioError, type UnitSystem } from '../core';
 
 export type Key = string | number;
 
@@ -36,10 +37,24 @@ export interface FieldSpec {
   readonly kind: QuantityKind;
 }
 
-/** Validate a candidate; errors by file path. */
-export function validate(candidate: Scenario): { ok: true } | { ok: false; errors: ScenarioError[] } {
-  const parsed = parseScenario(scenarioToFile(candidate, 'metric'));
-  return parsed.ok ? { ok: true } : { ok: false, errors: parsed.errors };
+/**
+ * Validate a candidate; errors by file path, with values and bounds in `units`.
+ * @default units metric
+ */
+export function validate(candidate: Scenario, units: UnitSystem = 'metric'): { ok: true } | { ok: false; errors: ScenarioError[] } {
+  const errors = checkScenarioSI(candidate, units);
+  return errors.length === 0 ? { ok: true } : { ok: false, errors };
+}
+
+/**
+ * The candidate scenario after one field is set to `valueSI`, typed in `typedUnits`. A value typed
+ * in the file's own unit system is kept exactly (the file writes it back as typed); one typed in
+ * the other system is snapped to the file unit's resolution (0.01 in, 0.1 lb, 0.1 mm, ...), so the
+ * scenario holds exactly the number the saved file will show and reopening it gives the same result.
+ */
+export function withField(cur: Scenario, spec: FieldSpec, valueSI: number, typedUnits: UnitSystem): Scenario {
+  const v = typedUnits === cur.units ? valueSI : snapToFileUnit(spec.kind, valueSI, cur.units);
+  return setIn<Scenario>(cur, spec.si, v);
 }
 
 /** The message for one field among a list of errors (exact path, or a path under it). */

@@ -11,6 +11,10 @@ export interface CliIO {
   err(line: string): void;
   /** Read a text file (UTF-8); throws with a readable message when it cannot. */
   readFile(path: string): string;
+  /** A file's size in bytes (checked against the scenario size limit before reading); absent in tests that give text. */
+  fileSize?(path: string): number;
+  /** Read a file's bytes (scenario files: the encoding is read from them); absent: `readFile` is used. */
+  readBytes?(path: string): Uint8Array;
 }
 
 export type OptionKind = 'flag' | 'string' | 'number';

@@ -1,5 +1,5 @@
 /** Reading a scenario file for any command: errors to stderr as `path: message` lines. */
-import { parseScenarioText, type Scenario } from '../core/index';
+import { fileSizeProblem, parseScenarioBytes, parseScenarioText, type Scenario } from '../core/index';
 import type { CliIO } from './command';
 
 export type LoadResult =
@@ -11,16 +11,20 @@ export type LoadResult =
  * `path: message` line per problem to stderr; the caller exits 2.
  */
 export function loadScenarioFile(file: string, io: CliIO): LoadResult {
-  let text: string;
+  let r: ReturnType<typeof parseScenarioText>;
   try {
-    text = io.readFile(file);
+    // The size limit from the file's size, before it is read; then the encoding from its bytes
+    // (the same rules as the app's "Open file").
+    const size = io.fileSize?.(file);
+    const tooBig = size === undefined ? null : fileSizeProblem(size);
+    if (tooBig) r = { ok: false, errors: [{ path: '(file)', message: tooBig }] };
+    else r = io.readBytes ? parseScenarioBytes(io.readBytes(file)) : parseScenarioText(io.readFile(file));
   } catch (e) {
     const code = (e as { code?: unknown }).code;
     const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a directory' : e instanceof Error ? e.message : String(e);
     io.err(`plumbline: cannot read ${file}: ${why}`);
     return { ok: false, reason: 'unreadable' };
   }
-  const r = parseScenarioText(text);
   if (!r.ok) {
     io.err(`${file}: ${r.errors.length} ${r.errors.length === 1 ? 'error' : 'errors'}`);
     for (const e of r.errors) io.err(`${e.path}: ${e.message}`);

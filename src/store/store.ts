@@ -5,6 +5,9 @@
 import { createStore, type StoreApi } from 'zustand/vanilla';
 import {
   buildModel,
+  decodeScenarioBytes,
+  fileSizeProblem,
+  readScenarioJson,
   parseScenario,
   solveEquilibrium,
   tiltSweep,
@@ -89,7 +92,8 @@ export interface PlumbState {
   editScenario(scenario: Scenario, fieldKey: string): void;
   /** Validate and load a scenario file's data; on failure keep the current scenario and set importErrors. */
   importData(data: unknown): boolean;
-  importText(text: string): boolean;
+  /** Open a scenario file's text or bytes; `sizeBytes` (the file's size) is checked before anything is read. */
+  importText(text: string | Uint8Array, sizeBytes?: number): boolean;
   clearImportErrors(): void;
   /** Tilt sweep about the current downhill direction, from level. */
   runTiltSweep(): TiltSweepResult;
@@ -260,15 +264,17 @@ export function createPlumbStore(initial: Scenario, units: UnitSystem = initial.
         set({ importErrors: null, importWarnings: parsed.warnings, sweep: null });
         return true;
       },
-      importText(text) {
-        let data: unknown;
-        try {
-          data = JSON.parse(text);
-        } catch (e) {
-          set({ importErrors: [{ path: '(file)', message: `not valid JSON: ${(e as Error).message}` }], importWarnings: [] });
+      importText(text, sizeBytes) {
+        // The same reading rules as the CLI (core/scenario/read.ts): size from the file size before
+        // reading, the encoding from the bytes, duplicate keys and oversized grids before JSON.parse.
+        const tooBig = sizeBytes === undefined ? null : fileSizeProblem(sizeBytes);
+        const decoded = tooBig ? null : typeof text === 'string' ? ({ ok: true, value: text } as const) : decodeScenarioBytes(text);
+        const read = tooBig ? null : decoded!.ok ? readScenarioJson(decoded!.value) : decoded!;
+        if (!read || !read.ok) {
+          set({ importErrors: read ? read.errors : [{ path: '(file)', message: tooBig! }], importWarnings: [] });
           return false;
         }
-        return get().importData(data);
+        return get().importData(read.value);
       },
       clearImportErrors() {
         set({ importErrors: null });

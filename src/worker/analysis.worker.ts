@@ -10,12 +10,9 @@ import {
   buildModel,
   collectReport,
   compareVehicles,
-  makeLines,
   passOptionsOf,
-  rankLines,
   renderReportHtml,
   runLineSweepJob,
-  runPass,
   stabilityRose,
   type AppliedBuild,
 } from '../core';

@@ -45,7 +45,7 @@ afterAll(() => {
 });
 
 const BAD_LINES = [
-  'vehicle.track.front: must be > 0 m, got -1.6',
+  'vehicle.track.front: must be ≥ 0.3 m, got -1.6',
   'vehicle.suspension.front.type: must be "solid" or "independent", got "coil"',
   'vehicle.colour: unknown key',
   'vehicle.cg.behindFrontAxle: must lie within the wheelbase (0 to 3.1 m), got 3.4',

@@ -98,7 +98,7 @@ it('obstacle pass: the headline is the core\'s, scrubbing poses the vehicle at t
 
   // Two stations whose FL scale readings differ by more than 20 kg (chosen from the Node pass).
   const kg = (i: number, k: number) => solved[i].wheels[k].verticalLoadN! / STANDARD_GRAVITY_M_PER_S2;
-  let a = 0;
+  const a = 0;
   let b = 0;
   for (let i = 0; i < solved.length; i++) if (Math.abs(kg(i, 0) - kg(0, 0)) > Math.abs(kg(b, 0) - kg(0, 0))) b = i;
   expect(Math.abs(kg(b, 0) - kg(a, 0))).toBeGreaterThan(20);

@@ -4,10 +4,13 @@
  * refused with a message naming the limit. Every other limit: at the limit accepted, one over
  * refused with a message that names the field and the limit.
  */
-import { readFileSync } from 'node:fs';
-import { describe, expect, it } from 'vitest';
+import { mkdtempSync, readFileSync, rmSync, truncateSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
 import { buildModel, parseScenario, parseScenarioText, solveEquilibrium, SCENARIO_LIMITS } from '../../src/core/index';
-import { runCli } from '../../src/cli/main';
+import { processIO, runCli } from '../../src/cli/main';
+import { createPlumbStore } from '../../src/store/store';
 import type { CliIO } from '../../src/cli/command';
 
 const STOCK = readFileSync('assets/scenarios/side-hill-stock.json', 'utf8');
@@ -152,4 +155,88 @@ describe('the other limits: at the limit accepted, one over refused naming the f
     expect(await runCli(['lines', file, '--offset', '-1:1:0.02', '--heading', '-5:5:0.2', '--quiet'], io)).not.toBe(0);
     expect(err.join('\n')).toMatch(/lines: the ranges give 5151 lines; must be 1 to 5000/);
   });
+});
+
+describe('reading a file: the same rules in the CLI (check) and the app (store.importText)', () => {
+  const dir = mkdtempSync(join(tmpdir(), 'plumbline-limits-'));
+  afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+  /** The CLI's `check` on a file, with the process's file access and captured streams. */
+  async function cli(path: string): Promise<{ code: number; err: string[] }> {
+    const err: string[] = [];
+    const io: CliIO = { ...processIO, out: () => {}, err: (l) => void err.push(l) };
+    const code = await runCli(['check', path], io);
+    return { code, err };
+  }
+  /** The app's "Open file" on the same bytes (the size is the file's). */
+  function app(bytes: Uint8Array, size = bytes.length): string[] {
+    const store = createPlumbStore(parseOk(STOCK));
+    const ok = store.getState().importText(bytes, size);
+    return ok ? [] : (store.getState().importErrors ?? []).map((e) => `${e.path}: ${e.message}`);
+  }
+  function parseOk(text: string) {
+    const r = parseScenarioText(text);
+    if (!r.ok) throw new Error('demo does not parse');
+    return r.scenario;
+  }
+
+  it('a 150 MiB file is refused from its size, before it is read (CLI and app, same message)', async () => {
+    const path = join(dir, 'huge.json');
+    // A sparse file: 150 MiB long, no disk blocks; reading it would take seconds and 150 MB.
+    writeFileSync(path, '{');
+    truncateSync(path, 150 * 1024 * 1024);
+    const t0 = performance.now();
+    const r = await cli(path);
+    const ms = performance.now() - t0;
+    const message = '(file): must be at most 134217728 bytes (128 MiB), got 157286400 bytes (150.0 MiB)';
+    expect(r.code).toBe(2);
+    expect(r.err).toContain(message);
+    expect(app(new Uint8Array(0), 150 * 1024 * 1024)).toEqual([message]);
+    console.log(`[hardening] 150 MiB file refused by the CLI in ${ms.toFixed(0)} ms`);
+  });
+
+  it('UTF-16 with a byte-order mark is read by both; without one, both refuse it naming the encoding', async () => {
+    const le = Buffer.concat([Buffer.from([0xff, 0xfe]), Buffer.from(STOCK, 'utf16le')]);
+    writeFileSync(join(dir, 'bom.json'), le);
+    expect(await cli(join(dir, 'bom.json'))).toEqual({ code: 0, err: [] });
+    expect(app(le)).toEqual([]);
+    const bare = Buffer.from(STOCK, 'utf16le');
+    writeFileSync(join(dir, 'bare.json'), bare);
+    const message = '(file): looks like UTF-16 little-endian text without a byte-order mark; save it as UTF-8 (or UTF-16 with a byte-order mark)';
+    const r = await cli(join(dir, 'bare.json'));
+    expect(r.code).toBe(2);
+    expect(r.err).toContain(message);
+    expect(r.err.join('\n')).not.toContain('\u0000');
+    expect(app(bare)).toEqual([message]);
+  });
+
+  it('duplicate keys: both refuse them with the key named', async () => {
+    const text = STOCK.replace(/"mass": (\d+)/, '"mass": $1, "mass": 21500');
+    expect(text).not.toBe(STOCK);
+    writeFileSync(join(dir, 'dup.json'), text);
+    const message = 'vehicle.mass: duplicate key "mass" in this object (each key once; JSON readers would keep only the last)';
+    const r = await cli(join(dir, 'dup.json'));
+    expect(r.code).toBe(2);
+    expect(r.err).toContain(message);
+    expect(app(Buffer.from(text))).toEqual([message]);
+  });
+
+  it('a 4096² grid is refused from its declared size, before 16.8 million heights are built', () => {
+    const head = JSON.stringify({ ...stock(), terrain: { features: [{ type: 'grid', origin: [0, 0], spacing: 0.05, cols: 4096, rows: 4096, heights: [] }] } });
+    // The heights written out in full: 16,777,216 zeros (33.5 MB of text).
+    const text = head.replace('"heights":[]', `"heights":[${'0,'.repeat(4096 * 4096 - 1)}0]`);
+    const heap0 = process.memoryUsage().heapUsed;
+    const t0 = performance.now();
+    const r = parseScenarioText(text);
+    const ms = performance.now() - t0;
+    const grownMb = (process.memoryUsage().heapUsed - heap0) / 1e6;
+    expect(messages(r)).toEqual([`terrain.features[0]: cols × rows must be ≤ ${SCENARIO_LIMITS.gridNodes} nodes, got 16777216`]);
+    console.log(`[hardening] 4096² grid refused in ${ms.toFixed(0)} ms, heap grew ${grownMb.toFixed(0)} MB`);
+    // Before the scan it took 10.9 s and 953 MB (JSON.parse built the heights first); now nothing is built.
+    expect(ms).toBeLessThan(2_000);
+    // Heights listed before cols and rows: refused at the list limit while scanning, still before JSON.parse.
+    const late = text.replace('"cols":4096,"rows":4096,', '').replace(/\]\}\]\}/, '],"cols":4096,"rows":4096}]}');
+    expect(late.indexOf('"cols"')).toBeGreaterThan(late.indexOf('"heights"'));
+    expect(messages(parseScenarioText(late))).toEqual([`terrain.features[0].heights: must have at most ${SCENARIO_LIMITS.gridNodes} values, got more`]);
+  }, 60_000);
 });

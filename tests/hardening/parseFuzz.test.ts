@@ -586,6 +586,7 @@ function toJsonLikeText(v: unknown): string | null {
     if (!hasNonFinite(v)) return JSON.stringify(v) ?? null;
     const text = JSON.stringify(v, (_k, x) => (typeof x === 'number' && !Number.isFinite(x) ? `${NON_FINITE_MARK}${String(x)}` : x));
     if (text === undefined) return null;
+    // eslint-disable-next-line no-control-regex -- the NUL marker is this replacer's own
     return text.replace(/"\u0000nonfinite:(NaN|Infinity|-Infinity)"/g, '$1');
   } catch {
     return null; // a cycle or a BigInt
@@ -889,7 +890,7 @@ describe('CSV heights under hostile input (fast-check, fixed seed)', () => {
           r = inp.kind === 'numbers' ? parseCsvNumbers(text) : inp.kind === 'profile' ? profileFromCsv(text) : gridFromCsv(text);
         } catch (e) {
           t.crashes++;
-          throw new Error(`CSV parser threw on ${short(JSON.stringify(text), 400)}: ${(e as Error).stack}`);
+          throw new Error(`CSV parser threw on ${short(JSON.stringify(text), 400)}: ${(e as Error).stack}`, { cause: e });
         }
         const ms = performance.now() - t0;
         t.maxMs = Math.max(t.maxMs, ms);

@@ -64,9 +64,16 @@ export function DistanceChart({
   let hi = -Infinity;
   if (yRange) [lo, hi] = yRange;
   else {
-    for (const s of series) for (const v of s.values) if (v !== null && Number.isFinite(v)) (lo = Math.min(lo, v)), (hi = Math.max(hi, v));
-    if (!Number.isFinite(lo)) (lo = 0), (hi = 1);
-    if (includeZero) (lo = Math.min(lo, 0)), (hi = Math.max(hi, 0));
+    for (const s of series) {
+      for (const v of s.values) {
+        if (v !== null && Number.isFinite(v)) {
+          lo = Math.min(lo, v);
+          hi = Math.max(hi, v);
+        }
+      }
+    }
+    if (!Number.isFinite(lo)) [lo, hi] = [0, 1];
+    if (includeZero) [lo, hi] = [Math.min(lo, 0), Math.max(hi, 0)];
     if (hi - lo < 1e-9) hi = lo + 1;
     const st = niceStep((hi - lo) / 4);
     lo = Math.floor(lo / st) * st;

@@ -1,6 +1,5 @@
 import { useState } from 'react';
-import type { Scenario } from '../../core';
-import { errorFor, getIn, setIn, validate, type FieldSpec } from '../edit';
+import { errorFor, getIn, validate, withField, type FieldSpec } from '../edit';
 import { usePlumb, usePlumbStore } from '../storeContext';
 import { NumberField } from './NumberField';
 
@@ -28,8 +27,8 @@ export function SpecField({ spec, testId }: SpecFieldProps) {
       error={error}
       onChange={(v) => {
         const cur = store.getState().scenario;
-        const candidate = setIn<Scenario>(cur, spec.si, v);
-        const res = validate(candidate);
+        const candidate = withField(cur, spec, v, units);
+        const res = validate(candidate, units);
         if (res.ok) {
           setError(null);
           store.getState().editScenario(candidate, spec.file);

@@ -1,5 +1,5 @@
 import type { Scenario, TerrainFeature } from '../../core';
-import { setIn, validate, type FieldSpec } from '../edit';
+import { validate, type FieldSpec } from '../edit';
 import { PRESETS, presetFeatures } from '../presets';
 import { usePlumb, usePlumbStore } from '../storeContext';
 import { SpecField } from './SpecField';

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { scenarioToFile, type UnitSystem } from '../../core';
+import { SCENARIO_LIMITS, scenarioToFile, type UnitSystem } from '../../core';
 import { shareHash } from '../../store/persist';
 import { usePlumb, usePlumbStore } from '../storeContext';
 
@@ -14,7 +14,8 @@ export function TopBar() {
 
   const exportFile = (): void => {
     const st = store.getState();
-    const text = JSON.stringify(scenarioToFile(st.scenario, st.units), null, 2);
+    // A file keeps its own units (the display units are a view of it).
+    const text = JSON.stringify(scenarioToFile(st.scenario), null, 2);
     const url = URL.createObjectURL(new Blob([text], { type: 'application/json' }));
     const a = document.createElement('a');
     a.href = url;
@@ -63,7 +64,8 @@ export function TopBar() {
           onChange={async (e) => {
             const f = e.target.files?.[0];
             e.target.value = '';
-            if (f) store.getState().importText(await f.text());
+            // The size is checked before the file is read; the bytes carry their encoding.
+            if (f) store.getState().importText(f.size > SCENARIO_LIMITS.fileBytes ? new Uint8Array(0) : new Uint8Array(await f.arrayBuffer()), f.size);
           }}
         />
       </label>

@@ -1,60 +1,28 @@
-import type { AxleSuspension, PayloadItem, Scenario } from '../../core';
-import { setIn, validate, type FieldSpec } from '../edit';
+import { AXLE_FIELDS, BODY_FIELDS, PAYLOAD_FIELDS, TYRE_FIELDS, VEHICLE_FIELDS, type AxleSuspension, type NumberRow, type PayloadItem, type Scenario } from '../../core';
+import { setIn, validate, type FieldSpec, type Key } from '../edit';
 import { usePlumb, usePlumbStore } from '../storeContext';
 import { SpecField } from './SpecField';
 
-const f = (label: string, si: (string | number)[], file: string, kind: FieldSpec['kind']): FieldSpec => ({ label, si: ['vehicle', ...si], file: `vehicle.${file}`, kind });
+/**
+ * The forms come from the scenario's field table (core/scenario/fields.ts): one SpecField per row,
+ * with the row's words, its SI path under `vehicle` and the file path its messages name.
+ */
+const fromRows = (rows: readonly NumberRow[], si: readonly Key[], file: string, prefix = ''): FieldSpec[] =>
+  rows.map((row) => ({
+    label: prefix ? `${prefix} ${row.label}` : row.label,
+    si: ['vehicle', ...si, ...row.si.split('.')],
+    file: `vehicle.${file ? `${file}.` : ''}${row.file}`,
+    kind: row.kind,
+  }));
 
-const CHASSIS: readonly FieldSpec[] = [
-  f('Wheelbase', ['wheelbaseM'], 'wheelbase', 'length'),
-  f('Track, front', ['trackFrontM'], 'track.front', 'length'),
-  f('Track, rear', ['trackRearM'], 'track.rear', 'length'),
-  f('Mass as weighed', ['massKg'], 'mass', 'mass'),
-  f('CG behind front axle', ['cg', 'behindFrontAxleM'], 'cg.behindFrontAxle', 'length'),
-  f('CG height', ['cg', 'heightM'], 'cg.height', 'length'),
-  f('CG left of centre', ['cg', 'leftOfCentreM'], 'cg.leftOfCentre', 'length'),
-  f('Unsprung mass, front axle', ['unsprungMassFrontKg'], 'unsprungMass.front', 'mass'),
-  f('Unsprung mass, rear axle', ['unsprungMassRearKg'], 'unsprungMass.rear', 'mass'),
-];
-
-const tyre = (end: 'Front' | 'Rear'): FieldSpec[] => {
-  const si = end === 'Front' ? 'tyreFront' : 'tyreRear';
-  const file = end === 'Front' ? 'tyre' : 'tyreRear';
-  return [
-    f(`${end} tyre radius`, [si, 'radiusM'], `${file}.radius`, 'length'),
-    f(`${end} tyre width`, [si, 'widthM'], `${file}.width`, 'length'),
-    f(`${end} tyre stiffness`, [si, 'stiffnessNPerM'], `${file}.stiffness`, 'stiffness'),
-  ];
-};
-
-const axle = (end: 'front' | 'rear'): FieldSpec[] => {
-  const si = end === 'front' ? 'suspensionFront' : 'suspensionRear';
-  const p = `suspension.${end}`;
-  return [
-    f('Wheel rate', [si, 'wheelRateNPerM'], `${p}.wheelRate`, 'stiffness'),
-    f('Bump travel', [si, 'bumpM'], `${p}.bump`, 'length'),
-    f('Droop travel', [si, 'droopM'], `${p}.droop`, 'length'),
-    f('Anti-roll bar', [si, 'antiRollNmPerRad'], `${p}.antiRoll`, 'rollStiffness'),
-    f('Roll-centre height', [si, 'rollCentreHeightM'], `${p}.rollCentreHeight`, 'length'),
-  ];
-};
-
-const BODY: readonly FieldSpec[] = [
-  f('Front overhang', ['body', 'frontOverhangM'], 'body.frontOverhang', 'length'),
-  f('Rear overhang', ['body', 'rearOverhangM'], 'body.rearOverhang', 'length'),
-  f('Body width', ['body', 'widthM'], 'body.width', 'length'),
-  f('Belly clearance', ['body', 'bellyClearanceM'], 'body.bellyClearance', 'length'),
-  f('Front bumper clearance', ['body', 'frontBumperClearanceM'], 'body.frontBumperClearance', 'length'),
-  f('Rear bumper clearance', ['body', 'rearBumperClearanceM'], 'body.rearBumperClearance', 'length'),
-  f('Roof height', ['body', 'roofHeightM'], 'body.roofHeight', 'length'),
-];
-
-const payloadFields = (i: number): FieldSpec[] => [
-  f('Mass', ['payload', i, 'massKg'], `payload[${i}].mass`, 'mass'),
-  f('Behind front axle', ['payload', i, 'behindFrontAxleM'], `payload[${i}].behindFrontAxle`, 'length'),
-  f('Height', ['payload', i, 'heightM'], `payload[${i}].height`, 'length'),
-  f('Left of centre', ['payload', i, 'leftOfCentreM'], `payload[${i}].leftOfCentre`, 'length'),
-];
+const CHASSIS: readonly FieldSpec[] = fromRows(VEHICLE_FIELDS, [], '');
+const tyre = (end: 'Front' | 'Rear'): FieldSpec[] =>
+  fromRows(TYRE_FIELDS, [end === 'Front' ? 'tyreFront' : 'tyreRear'], end === 'Front' ? 'tyre' : 'tyreRear', end);
+// Spring spacing is a solid axle's own field (a cross-field rule refuses it on an independent one).
+const axle = (end: 'front' | 'rear'): FieldSpec[] =>
+  fromRows(AXLE_FIELDS.filter((r) => r.si !== 'springSpacingM'), [end === 'front' ? 'suspensionFront' : 'suspensionRear'], `suspension.${end}`);
+const BODY: readonly FieldSpec[] = fromRows(BODY_FIELDS, ['body'], 'body');
+const payloadFields = (i: number): FieldSpec[] => fromRows(PAYLOAD_FIELDS, ['payload', i], `payload[${i}]`);
 
 function Group({ title, specs }: { title: string; specs: readonly FieldSpec[] }) {
   return (

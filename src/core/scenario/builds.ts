@@ -19,9 +19,10 @@ import type { BuildSpec, WheelFitment } from '../analysis/builds';
 import type { PayloadItem } from '../model/types';
 import type { ScenarioError, UnitSystem } from './types';
 import type { ScenarioFileData } from './schema';
-import { toSI, fromSI, M_PER_IN } from './units';
+import { M_PER_IN, M_PER_MM, PAYLOAD_FIELDS, fileNumber, fixedUnitNumber, rowsToFile, rowsToSI, toSI } from './fields';
 
-const M_PER_MM = 0.001;
+/** Build names the comparison uses for its own columns (compared trimmed, in any case). */
+export const RESERVED_BUILD_NAMES: readonly string[] = ['as given'];
 
 type Plain = Record<string, unknown>;
 const own = (o: unknown, k: string): unknown =>
@@ -35,7 +36,9 @@ export function buildsCrossChecks(data: unknown, errors: ScenarioError[]): void 
   builds.forEach((b, i) => {
     const p = `builds[${i}]`;
     const name = own(b, 'name');
-    if (typeof name === 'string') {
+    if (typeof name === 'string' && RESERVED_BUILD_NAMES.includes(name.trim().toLowerCase())) {
+      errors.push({ path: `${p}.name`, message: `${JSON.stringify(name)} is reserved for the vehicle without modifications (the first column of a comparison); choose another name` });
+    } else if (typeof name === 'string') {
       if (names.has(name)) errors.push({ path: `${p}.name`, message: `must differ from builds[${names.get(name)}].name, got ${JSON.stringify(name)}` });
       else names.set(name, i);
     }
@@ -74,13 +77,7 @@ export function buildsToSI(builds: readonly FileBuild[] | undefined, u: UnitSyst
   const travel = (t: { bump?: number; droop?: number } | undefined) =>
     t === undefined ? undefined : { ...(t.bump === undefined ? {} : { bumpM: m(t.bump) }), ...(t.droop === undefined ? {} : { droopM: m(t.droop) }) };
   return builds.map((b): BuildSpec => {
-    const payload: PayloadItem[] | undefined = b.payload?.map((p) => ({
-      label: p.label,
-      massKg: toSI('mass', p.mass, u),
-      behindFrontAxleM: m(p.behindFrontAxle),
-      heightM: m(p.height),
-      leftOfCentreM: m(p.leftOfCentre ?? 0),
-    }));
+    const payload: PayloadItem[] | undefined = b.payload?.map((p) => rowsToSI(PAYLOAD_FIELDS, p, u, { label: p.label }) as unknown as PayloadItem);
     const w = b.wheels;
     return {
       name: b.name,
@@ -121,13 +118,13 @@ export function buildsToSI(builds: readonly FileBuild[] | undefined, u: UnitSyst
 
 /** Core BuildSpec (SI) → file form in `units` (wheel fitment in in and mm). */
 export function buildsToFile(builds: readonly BuildSpec[], units: UnitSystem): Record<string, unknown>[] {
-  const m = (v: number) => fromSI('length', v, units);
+  const m = (v: number) => fileNumber('length', v, units);
   const fit = (f: WheelFitment) => ({
-    rimWidth: f.rimWidthM / M_PER_IN,
-    ...(f.offsetM === undefined ? {} : { offset: f.offsetM / M_PER_MM }),
-    ...(f.backspacingM === undefined ? {} : { backspacing: f.backspacingM / M_PER_IN }),
+    rimWidth: fixedUnitNumber(f.rimWidthM, M_PER_IN),
+    ...(f.offsetM === undefined ? {} : { offset: fixedUnitNumber(f.offsetM, M_PER_MM) }),
+    ...(f.backspacingM === undefined ? {} : { backspacing: fixedUnitNumber(f.backspacingM, M_PER_IN) }),
   });
-  const anti = (x: number | 'disconnected' | undefined) => (x === undefined || x === 'disconnected' ? x : fromSI('rollStiffness', x, units));
+  const anti = (x: number | 'disconnected' | undefined) => (x === undefined || x === 'disconnected' ? x : fileNumber('rollStiffness', x, units));
   const travel = (t: { bumpM?: number; droopM?: number } | undefined) =>
     t === undefined ? undefined : { ...(t.bumpM === undefined ? {} : { bump: m(t.bumpM) }), ...(t.droopM === undefined ? {} : { droop: m(t.droopM) }) };
   return builds.map((b) => {
@@ -143,7 +140,7 @@ export function buildsToFile(builds: readonly BuildSpec[], units: UnitSystem): R
       out.tyre = {
         radius: m(b.tyre.radiusM),
         ...(b.tyre.widthM === undefined ? {} : { width: m(b.tyre.widthM) }),
-        ...(b.tyre.stiffnessNPerM === undefined ? {} : { stiffness: fromSI('stiffness', b.tyre.stiffnessNPerM, units) }),
+        ...(b.tyre.stiffnessNPerM === undefined ? {} : { stiffness: fileNumber('stiffness', b.tyre.stiffnessNPerM, units) }),
       };
     }
     if (b.wheels) {
@@ -156,13 +153,7 @@ export function buildsToFile(builds: readonly BuildSpec[], units: UnitSystem): R
       };
     }
     if (b.payload) {
-      out.payload = b.payload.map((p) => ({
-        label: p.label,
-        mass: fromSI('mass', p.massKg, units),
-        behindFrontAxle: m(p.behindFrontAxleM),
-        height: m(p.heightM),
-        leftOfCentre: m(p.leftOfCentreM),
-      }));
+      out.payload = b.payload.map((p) => rowsToFile(PAYLOAD_FIELDS, p, units, { label: p.label }));
     }
     if (b.antiRoll) {
       const a: Record<string, unknown> = {};

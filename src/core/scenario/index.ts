@@ -1,7 +1,9 @@
 /** Scenario files: schema, validation, unit conversion, and writing back. */
 export type { Scenario, ScenarioError, ParseResult, UnitSystem } from './types';
-export { parseScenario, parseScenarioText, defaultBodyShape, SCENARIO_DEFAULTS } from './parse';
+export { parseScenario, parseScenarioText, parseScenarioBytes, defaultBodyShape, SCENARIO_DEFAULTS } from './parse';
+export { fileSizeProblem, decodeScenarioBytes, readScenarioJson, scanScenarioJson, type ReadResult } from './read';
 export { scenarioToFile, type ScenarioFileObject } from './write';
+export { checkScenarioSI, boundProblem } from './checkSI';
 export { buildsToSI, buildsToFile, buildsCrossChecks } from './builds';
 export {
   scenarioFileSchema,
@@ -18,6 +20,25 @@ export {
   type ScenarioFileData,
   type ScenarioFileSchema,
 } from './schema';
+export {
+  VEHICLE_FIELDS,
+  TYRE_FIELDS,
+  AXLE_FIELDS,
+  BODY_FIELDS,
+  PAYLOAD_FIELDS,
+  FEATURE_FIELDS,
+  POSE_FIELDS,
+  TILT_FIELDS,
+  PATH_FIELDS,
+  GROUND_FIELDS,
+  PHYSICAL_MIN,
+  fileNumber,
+  fixedUnitNumber,
+  snapToFileUnit,
+  type FieldRow,
+  type NumberRow,
+  type Bound,
+} from './fields';
 export {
   M_PER_IN,
   M_PER_FT,

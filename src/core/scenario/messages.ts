@@ -48,3 +48,39 @@ export function formatPath(path: readonly PropertyKey[]): string {
   }
   return out === '' ? '(file)' : out;
 }
+
+/**
+ * Why a text may not be used, or null: control characters (C0 but tab, line feed and carriage
+ * return in multi-line text; DEL; C1) are refused, so a name can never drive a terminal (ESC,
+ * BEL, OSC sequences) or hide part of itself. The message names the first one and where it is.
+ */
+export function controlCharProblem(text: string, multiline: boolean): string | null {
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    const control = c < 0x20 || (c >= 0x7f && c <= 0x9f);
+    if (!control) continue;
+    if (multiline && (c === 0x09 || c === 0x0a || c === 0x0d)) continue;
+    const code = `U+${c.toString(16).toUpperCase().padStart(4, '0')}`;
+    const name = CONTROL_NAMES[c] ?? (c >= 0x80 ? 'a C1 control' : 'a control character');
+    return `must not contain control characters${multiline ? ' (other than tab and line breaks)' : ''}, got ${code} (${name}) at character ${i + 1}`;
+  }
+  return null;
+}
+
+const CONTROL_NAMES: Readonly<Record<number, string>> = {
+  0x00: 'NUL',
+  0x07: 'BEL',
+  0x08: 'backspace',
+  0x09: 'tab',
+  0x0a: 'line feed',
+  0x0d: 'carriage return',
+  0x1b: 'ESC',
+  0x7f: 'DEL',
+  0x9b: 'CSI',
+  0x9d: 'OSC',
+};
+
+/** The message for a number outside one of its bounds: "must be ≥ 10000 N/m, got 5e-324". */
+export function boundMessage(op: string, bound: number, unit: string, got: unknown): string {
+  return `must be ${op} ${withUnit(bound, unit)}, got ${describeValue(got)}`;
+}

@@ -9,7 +9,7 @@
  * (3) checks across fields; (4) conversion to SI with the defaults applied in one place.
  */
 import { migrateScenario } from './migrate';
-import type { AxleSuspension, BodyShape, PathSpec, PayloadItem, TerrainFeature, TyreSpec, Vehicle } from '../model/types';
+import type { AxleSuspension, BodyShape, PathSpec, PayloadItem, Pose, TerrainFeature, Tilt, TyreSpec, Vehicle } from '../model/types';
 import type { ParseResult, Scenario, ScenarioError, UnitSystem } from './types';
 import {
   DOWNHILL_NAMES,
@@ -18,8 +18,28 @@ import {
   type ScenarioFileData,
 } from './schema';
 import { describeValue, formatLimit, formatPath, withUnit } from './messages';
-import { RAD_PER_DEG, metricToFileUnits, toSI, unitLabel } from './units';
+import {
+  AXLE_FIELDS,
+  BODY_FIELDS,
+  FEATURE_FIELDS,
+  GROUND_FIELDS,
+  PATH_FIELDS,
+  PATH_STEP_DEFAULT_M,
+  PAYLOAD_FIELDS,
+  POSE_FIELDS,
+  RAD_PER_DEG,
+  TILT_FIELDS,
+  TYRE_FIELDS,
+  VEHICLE_FIELDS,
+  fileNumber,
+  metricToFileUnits,
+  rowsToSI,
+  toSI,
+  unitLabel,
+  type FieldRow,
+} from './fields';
 import { buildsCrossChecks, buildsToSI } from './builds';
+import { decodeScenarioBytes, readScenarioJson } from './read';
 
 /**
  * Defaults for optional fields, in metric file units (m, deg). Applied only in `toScenario`.
@@ -40,7 +60,7 @@ export const SCENARIO_DEFAULTS = {
   /** Tilt direction. @default "left" (left side down) */
   tiltDownhill: 'left' as const,
   /** Path station spacing (m). @default 0.05 */
-  pathStepM: 0.05,
+  pathStepM: PATH_STEP_DEFAULT_M,
   /** Tyre-on-ground friction coefficient. @default 0.7 (loose moist dirt is 0.60–0.65, Noon 1994) */
   friction: 0.7,
   /** Plane grade and cross slope (deg) and height (m). @default 0 */
@@ -174,8 +194,11 @@ function isUnder(path: string, prefix: string): boolean {
   );
 }
 
-/** Checks across fields, on the plain data, for fields that are themselves valid. */
-function crossChecks(data: unknown, units: UnitSystem, errors: ScenarioError[]): void {
+/**
+ * Checks across fields, on the plain data, for fields that are themselves valid. Also run on the
+ * small file view of an edited scenario (checkSI.ts), so the rules exist once.
+ */
+export function crossChecks(data: unknown, units: UnitSystem, errors: ScenarioError[]): void {
   const bad = new Set(errors.map((e) => e.path));
   const L = unitLabel('length', units);
   const M = unitLabel('mass', units);
@@ -294,76 +317,35 @@ function crossChecks(data: unknown, units: UnitSystem, errors: ScenarioError[]):
   }
 }
 
-/** Validated file data → the SI core form, defaults applied. */
+/** Validated file data → the SI core form, defaults applied (from the field table, fields.ts). */
 function toScenario(d: ScenarioFileData, warnings: string[]): Scenario {
   const u = d.units;
   const D = SCENARIO_DEFAULTS;
-  const m = (v: number) => toSI('length', v, u);
-  const kg = (v: number) => toSI('mass', v, u);
-  const rad = (v: number) => toSI('angle', v, u);
-  const range = (r: readonly [number, number] | undefined): readonly [number, number] | null => (r ? [m(r[0]), m(r[1])] : null);
+  const si = <T>(rows: readonly FieldRow[], file: unknown, extra: Record<string, unknown> = {}): T =>
+    rowsToSI(rows, file, u, extra) as T;
 
   const v = d.vehicle;
-  const tyre = (t: typeof v.tyre): TyreSpec => ({
-    radiusM: m(t.radius),
-    widthM: m(t.width),
-    stiffnessNPerM: toSI('stiffness', t.stiffness, u),
-  });
-  const axle = (a: typeof v.suspension.front): AxleSuspension => {
-    const out: AxleSuspension = {
-      type: a.type,
-      wheelRateNPerM: toSI('stiffness', a.wheelRate, u),
-      bumpM: m(a.bump),
-      droopM: m(a.droop),
-      antiRollNmPerRad: toSI('rollStiffness', a.antiRoll ?? D.antiRollNmPerDeg, u),
-      rollCentreHeightM: m(a.rollCentreHeight),
-    };
-    return a.springSpacing === undefined ? out : { ...out, springSpacingM: m(a.springSpacing) };
-  };
-  const payload: PayloadItem[] = (v.payload ?? []).map((p) => ({
-    label: p.label,
-    massKg: kg(p.mass),
-    behindFrontAxleM: m(p.behindFrontAxle),
-    heightM: m(p.height),
-    leftOfCentreM: m(p.leftOfCentre ?? D.leftOfCentreM),
-  }));
-  const base: Omit<Vehicle, 'body' | 'payload'> = {
+  const tyre = (t: unknown): TyreSpec => si<TyreSpec>(TYRE_FIELDS, t);
+  const axle = (a: { type: AxleSuspension['type'] }): AxleSuspension => si<AxleSuspension>(AXLE_FIELDS, a, { type: a.type });
+  const payload: PayloadItem[] = (v.payload ?? []).map((p) => si<PayloadItem>(PAYLOAD_FIELDS, p, { label: p.label }));
+  const base = si<Omit<Vehicle, 'body' | 'payload'>>(VEHICLE_FIELDS, v, {
     name: v.name,
-    wheelbaseM: m(v.wheelbase),
-    trackFrontM: m(v.track.front),
-    trackRearM: m(v.track.rear),
-    massKg: kg(v.mass),
-    cg: {
-      behindFrontAxleM: m(v.cg.behindFrontAxle),
-      heightM: m(v.cg.height),
-      leftOfCentreM: m(v.cg.leftOfCentre ?? D.leftOfCentreM),
-    },
-    unsprungMassFrontKg: kg(v.unsprungMass.front),
-    unsprungMassRearKg: kg(v.unsprungMass.rear),
     tyreFront: tyre(v.tyre),
     tyreRear: tyre(v.tyreRear ?? v.tyre),
     suspensionFront: axle(v.suspension.front),
     suspensionRear: axle(v.suspension.rear),
-  };
+  });
   const fallback = defaultBodyShape(base);
-  const b = v.body ?? {};
-  const bodyKeys = [
-    ['frontOverhang', 'frontOverhangM'],
-    ['rearOverhang', 'rearOverhangM'],
-    ['width', 'widthM'],
-    ['bellyClearance', 'bellyClearanceM'],
-    ['frontBumperClearance', 'frontBumperClearanceM'],
-    ['rearBumperClearance', 'rearBumperClearanceM'],
-    ['roofHeight', 'roofHeightM'],
-  ] as const;
+  const given = si<Partial<BodyShape>>(BODY_FIELDS, v.body ?? {});
   const body: Record<string, number> = {};
   const defaulted: string[] = [];
-  for (const [fileKey, coreKey] of bodyKeys) {
-    const given = b[fileKey];
-    if (given === undefined) defaulted.push(fileKey);
-    body[coreKey] = given === undefined ? fallback[coreKey] : m(given);
+  for (const row of BODY_FIELDS) {
+    const key = row.si as keyof BodyShape;
+    const value = given[key];
+    if (value === undefined) defaulted.push(row.file);
+    body[key] = value ?? fallback[key];
   }
-  if (defaulted.length === bodyKeys.length) {
+  if (defaulted.length === BODY_FIELDS.length) {
     warnings.push('vehicle.body: not given; using a rough outline derived from the vehicle: clearance results are only indicative');
   } else if (defaulted.length > 0) {
     warnings.push(`vehicle.body: ${defaulted.join(', ')} not given; using rough values derived from the vehicle`);
@@ -374,69 +356,22 @@ function toScenario(d: ScenarioFileData, warnings: string[]): Scenario {
   for (const [end, a] of [['front', vehicle.suspensionFront], ['rear', vehicle.suspensionRear]] as const) {
     if (a.rollCentreHeightM >= vehicle.cg.heightM) {
       warnings.push(
-        `vehicle.suspension.${end}.rollCentreHeight: at or above the CG height (${withUnit(v.cg.height, unitLabel('length', u))}); the body would lean into the slope`,
+        `vehicle.suspension.${end}.rollCentreHeight: at or above the CG height (${withUnit(fileNumber('length', vehicle.cg.heightM, u), unitLabel('length', u))}); the body would lean into the slope`,
       );
     }
   }
 
-  const features: TerrainFeature[] = d.terrain.features.map((f): TerrainFeature => {
-    switch (f.type) {
-      case 'plane':
-        return {
-          type: 'plane',
-          gradeRad: rad(f.grade ?? D.planeDeg),
-          crossSlopeRad: rad(f.crossSlope ?? D.planeDeg),
-          heightM: m(f.height ?? 0),
-        };
-      case 'step':
-        return { type: 'step', xM: m(f.x), heightM: m(f.height), yRangeM: range(f.y), edgeRadiusM: m(f.edgeRadius ?? D.edgeRadiusM) };
-      case 'block':
-        return {
-          type: 'block',
-          xRangeM: range(f.x) as readonly [number, number],
-          yRangeM: range(f.y) as readonly [number, number],
-          heightM: m(f.height),
-          edgeRadiusM: m(f.edgeRadius ?? D.edgeRadiusM),
-        };
-      case 'rock':
-        return { type: 'rock', xM: m(f.x), yM: m(f.y), heightM: m(f.height), radiusM: m(f.radius) };
-      case 'ramp':
-        return { type: 'ramp', xM: m(f.x), angleRad: rad(f.angle), lengthM: m(f.length), yRangeM: range(f.y) };
-      case 'profile':
-        return {
-          type: 'profile',
-          axis: f.axis,
-          points: f.points.map((p) => [m(p[0]), m(p[1])] as const),
-          acrossM: range(f.across),
-        };
-      case 'grid': {
-        const h = f.heights;
-        if (u !== 'metric') for (let i = 0; i < h.length; i++) h[i] = m(h[i]);
-        return {
-          type: 'grid',
-          originM: [m(f.origin[0]), m(f.origin[1])],
-          spacingM: m(f.spacing),
-          cols: f.cols,
-          rows: f.rows,
-          heightsM: h,
-        };
-      }
-    }
-  });
+  const features = d.terrain.features.map((f) => si<TerrainFeature>(FEATURE_FIELDS[f.type], f, { type: f.type }));
 
-  const pose = d.pose ?? {};
   const tilt = d.tilt ?? {};
   const downhill = tilt.downhill ?? D.tiltDownhill;
   // Downhill direction, normalised into [0°, 360°) before conversion.
   const downhillDeg = typeof downhill === 'string' ? DOWNHILL_NAMES[downhill] : ((downhill % 360) + 360) % 360;
   let path: PathSpec | null = null;
   if (d.path) {
-    path = {
-      fromM: [m(d.path.from[0]), m(d.path.from[1])],
-      toM: [m(d.path.to[0]), m(d.path.to[1])],
-      stepM: d.path.step === undefined ? D.pathStepM : m(d.path.step),
-      headingRad: d.path.heading === undefined ? null : rad(d.path.heading),
-    };
+    path = si<PathSpec>(PATH_FIELDS, d.path, {
+      headingRad: d.path.heading === undefined ? null : toSI('angle', d.path.heading as number, u),
+    });
   }
   return {
     version: d.version,
@@ -444,14 +379,10 @@ function toScenario(d: ScenarioFileData, warnings: string[]): Scenario {
     units: u,
     vehicle,
     terrain: { features },
-    pose: {
-      xM: m(pose.x ?? D.poseXM),
-      yM: m(pose.y ?? D.poseYM),
-      headingRad: rad(pose.heading ?? D.poseHeadingDeg),
-    },
-    tilt: { angleRad: rad(tilt.angle ?? D.tiltAngleDeg), downhillRad: downhillDeg * RAD_PER_DEG },
+    pose: si<Pose>(POSE_FIELDS, d.pose ?? {}),
+    tilt: { ...si<Pick<Tilt, 'angleRad'>>(TILT_FIELDS, tilt), downhillRad: downhillDeg * RAD_PER_DEG },
     path,
-    friction: d.ground?.friction ?? D.friction,
+    ...si<{ friction: number }>(GROUND_FIELDS, d.ground ?? {}),
     notes: d.notes ?? D.notes,
     ...(d.builds ? { builds: buildsToSI(d.builds, u) } : {}),
   };
@@ -520,45 +451,27 @@ export function parseScenario(input: unknown): ParseResult {
   }
 }
 
-/** Line and column (1-based) of a character offset. */
-function lineColumn(text: string, offset: number): { line: number; column: number } {
-  let line = 1;
-  let last = -1;
-  for (let i = 0; i < offset && i < text.length; i++) {
-    if (text.charCodeAt(i) === 10) {
-      line++;
-      last = i;
-    }
-  }
-  return { line, column: offset - last };
-}
-
-/** Validate a scenario file's text (JSON). Never throws; a syntax error is one error at "(file)". */
+/**
+ * Validate a scenario file's text (JSON). Never throws; a syntax error, a duplicate key or a file
+ * past the size limit is one error at its place ("(file)" or the key's path).
+ */
 export function parseScenarioText(text: string): ParseResult {
   try {
     if (typeof text !== 'string') {
       return { ok: false, errors: [{ path: '(file)', message: `must be text, got ${describeValue(text)}` }] };
     }
-    if (text.length > SCENARIO_LIMITS.fileChars) {
-      return {
-        ok: false,
-        errors: [{ path: '(file)', message: `must be at most ${SCENARIO_LIMITS.fileChars} characters, got ${text.length}` }],
-      };
-    }
-    const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
-    let data: unknown;
-    try {
-      data = JSON.parse(body);
-    } catch (e) {
-      const why = e instanceof Error ? e.message : String(e);
-      const at = /position (\d+)/.exec(why);
-      const where = at ? (() => {
-        const lc = lineColumn(body, Number(at[1]));
-        return ` at line ${lc.line}, column ${lc.column}`;
-      })() : '';
-      return { ok: false, errors: [{ path: '(file)', message: `not valid JSON${where}: ${why}` }] };
-    }
-    return parseScenario(data);
+    const read = readScenarioJson(text);
+    return read.ok ? parseScenario(read.value) : { ok: false, errors: read.errors };
+  } catch (e) {
+    return internalError(e);
+  }
+}
+
+/** Validate a scenario file's bytes: the size limit first, then the encoding (read.ts), then as text. */
+export function parseScenarioBytes(bytes: Uint8Array): ParseResult {
+  try {
+    const decoded = decodeScenarioBytes(bytes);
+    return decoded.ok ? parseScenarioText(decoded.value) : { ok: false, errors: decoded.errors };
   } catch (e) {
     return internalError(e);
   }

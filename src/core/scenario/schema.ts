@@ -13,13 +13,38 @@ import * as z from 'zod';
 // runs under a Content-Security-Policy without 'unsafe-eval' (tests/e2e/hardening.test.ts).
 z.config({ jitless: true });
 import type { UnitSystem } from './types';
-import { metricToFileUnits, unitLabel, type QuantityKind } from './units';
-import { describeValue, withUnit } from './messages';
+import {
+  AXLE_FIELDS,
+  BODY_FIELDS,
+  COORD,
+  FEATURE_FIELDS,
+  FEATURE_TYPES,
+  GROUND_FIELDS,
+  PATH_FIELDS,
+  PATH_HEADING_FIELD,
+  PAYLOAD_FIELDS,
+  PLAUSIBLE,
+  POSE_FIELDS,
+  TILT_FIELDS,
+  TRAVEL,
+  TYRE_FIELDS,
+  TYRE_RADIUS,
+  TYRE_STIFFNESS,
+  TYRE_WIDTH,
+  VEHICLE_FIELDS,
+  metricToFileUnits,
+  unitLabel,
+  type Bound,
+  type FieldRow,
+  type QuantityKind,
+} from './fields';
+import { boundMessage, controlCharProblem, describeValue, withUnit } from './messages';
+
+export { FEATURE_TYPES, PLAUSIBLE };
 
 /** Current file format version. */
 export const SCENARIO_VERSION = 1;
 
-export const FEATURE_TYPES = ['plane', 'step', 'block', 'rock', 'ramp', 'profile', 'grid'] as const;
 export const SUSPENSION_TYPES = ['solid', 'independent'] as const;
 export const UNIT_SYSTEMS = ['metric', 'imperial'] as const;
 /** Named tilt directions and their angle in degrees, counter-clockwise from the nose. */
@@ -48,44 +73,19 @@ export const SCENARIO_LIMITS = {
   notesChars: 20_000,
   /** Characters in a scenario file (parseScenarioText): a full grid with 6-digit heights fits. */
   fileChars: 128 * 1024 * 1024,
+  /** Bytes in a scenario file, checked from the file's size before it is read (app and CLI). */
+  fileBytes: 128 * 1024 * 1024,
 } as const;
 
-/**
- * Plausibility bounds, in metric file units (m, kg, deg). A value outside them is almost always a
- * unit mistake (millimetres typed into a metric file) rather than a real vehicle.
- */
-export const PLAUSIBLE = {
-  /** Wheelbase up to 20 m (the largest off-road trucks are well under 10 m). */
-  wheelbaseMaxM: 20,
-  /** Track up to 10 m. */
-  trackMaxM: 10,
-  /** Mass up to 200 t. */
-  massMaxKg: 200_000,
-  /** CG height up to 10 m. */
-  cgHeightMaxM: 10,
-  /** Tyre radius up to 3 m. */
-  tyreRadiusMaxM: 3,
-  /** Suspension travel, either way, up to 2 m. */
-  travelMaxM: 2,
-  /** Coordinates (terrain, pose, path, CG and payload positions) within ±100 km of the origin. */
-  coordMaxM: 100_000,
-  /** Feature heights within ±1 km. */
-  heightMaxM: 1_000,
-} as const;
-
-type Op = '>' | '≥' | '<' | '≤';
-/** A bound in metric file units (m, kg, N/m, N·m/deg, deg, or a plain number). */
-type Bound = readonly [op: Op, metricValue: number];
 /** The raw issue as zod hands it to a schema's error function. */
 type RawIssue = { readonly code?: string; readonly input?: unknown };
 
 /** Builds the schema for one unit system. Use `scenarioFileSchema(units)`, which caches it. */
 export function buildScenarioSchema(u: UnitSystem) {
   const L = SCENARIO_LIMITS;
-  const P = PLAUSIBLE;
 
   /** A finite number of one kind, with bounds; one message per field (checks abort in turn). */
-  const num = (kind: QuantityKind, ...bounds: Bound[]) => {
+  const num = (kind: QuantityKind, ...bounds: readonly Bound[]) => {
     const unit = unitLabel(kind, u);
     let s = z.number({
       error: (iss: RawIssue) =>
@@ -97,7 +97,7 @@ export function buildScenarioSchema(u: UnitSystem) {
       const v = metricToFileUnits(kind, metricValue, u);
       const params = {
         abort: true,
-        error: (iss: RawIssue) => `must be ${op} ${withUnit(v, unit)}, got ${describeValue(iss.input)}`,
+        error: (iss: RawIssue) => boundMessage(op, v, unit, iss.input),
       };
       if (op === '>') s = s.gt(v, params);
       else if (op === '≥') s = s.gte(v, params);
@@ -106,12 +106,8 @@ export function buildScenarioSchema(u: UnitSystem) {
     }
     return s;
   };
-  const len = (...bounds: Bound[]) => num('length', ...bounds);
-  const coord = () => len(['≥', -P.coordMaxM], ['≤', P.coordMaxM]);
-  const featureHeight = () => len(['≥', -P.heightMaxM], ['≤', P.heightMaxM]);
-  const mass = (...bounds: Bound[]) => num('mass', ...bounds);
-  const deg = (...bounds: Bound[]) => num('angle', ...bounds);
-  const heading = () => deg(['≥', -360], ['≤', 360]);
+  const len = (...bounds: readonly Bound[]) => num('length', ...bounds);
+  const coord = () => len(...COORD);
 
   /** A whole number (grid cols, rows; the version is a literal). */
   const int = (min: number) =>
@@ -126,7 +122,8 @@ export function buildScenarioSchema(u: UnitSystem) {
       })
       .gte(min, { abort: true, error: (iss: RawIssue) => `must be ≥ ${min}, got ${describeValue(iss.input)}` });
 
-  const text = (maxChars: number, nonEmpty: boolean) => {
+  /** Text; control characters are refused (a name is printed in terminals and reports). */
+  const text = (maxChars: number, nonEmpty: boolean, multiline = false) => {
     let s = z
       .string({
         error: (iss: RawIssue) =>
@@ -138,7 +135,10 @@ export function buildScenarioSchema(u: UnitSystem) {
           `must be at most ${maxChars} characters, got ${typeof iss.input === 'string' ? iss.input.length : '?'}`,
       });
     if (nonEmpty) s = s.min(1, { abort: true, error: 'must not be empty' });
-    return s;
+    return s.superRefine((v, ctx) => {
+      const problem = controlCharProblem(v, multiline);
+      if (problem) ctx.addIssue({ code: 'custom', message: problem, input: v });
+    });
   };
 
   const oneOf = <const T extends readonly [string, ...string[]]>(values: T) => {
@@ -210,7 +210,7 @@ export function buildScenarioSchema(u: UnitSystem) {
         ctx.addIssue({ code: 'custom', message: `must have at most ${L.gridNodes} values, got ${v.length}` });
         return z.NEVER;
       }
-      const maxH = metricToFileUnits('length', P.heightMaxM, u);
+      const maxH = metricToFileUnits('length', PLAUSIBLE.heightMaxM, u);
       const out = new Float64Array(v.length);
       let bad = 0;
       for (let i = 0; i < v.length; i++) {
@@ -257,60 +257,72 @@ export function buildScenarioSchema(u: UnitSystem) {
       }
     });
 
-  const featureTag = <T extends string>(t: T) => z.literal(t);
+  /** The zod type of one row of the field table (fields.ts), optional when the row is. */
+  const rowType = (row: FieldRow): z.ZodType => {
+    let t: z.ZodType;
+    switch (row.type) {
+      case 'number': {
+        // The JSON Schema's description of the field: its words and unit (from the table).
+        const unit = unitLabel(row.kind, u);
+        const words = row.label === row.file ? '' : `${row.label[0].toUpperCase()}${row.label.slice(1)}`;
+        const description = [words, unit ? `in ${unit}` : ''].filter(Boolean).join(', ');
+        t = num(row.kind, ...row.bounds);
+        if (description) t = t.describe(`${description}.`);
+        break;
+      }
+      case 'range':
+        t = range();
+        break;
+      case 'pair':
+        t = pair(row.names, 'length', coord);
+        break;
+      case 'int':
+        t = int(row.min);
+        break;
+      case 'choice':
+        t = oneOf(row.values);
+        break;
+      case 'points':
+        t = profilePoints();
+        break;
+      case 'heights':
+        t = gridHeights();
+        break;
+    }
+    return row.optional ? t.optional() : t;
+  };
+  /** A strict-object shape from rows; dotted file keys (`track.front`) become nested objects. */
+  const shapeOf = (rows: readonly FieldRow[]): Record<string, z.ZodType> => {
+    const shape: Record<string, z.ZodType> = {};
+    const nested = new Map<string, FieldRow[]>();
+    const order: string[] = [];
+    for (const row of rows) {
+      const dot = row.file.indexOf('.');
+      const key = dot < 0 ? row.file : row.file.slice(0, dot);
+      if (!order.includes(key)) order.push(key);
+      if (dot < 0) shape[key] = rowType(row);
+      else {
+        const list = nested.get(key) ?? [];
+        list.push({ ...row, file: row.file.slice(dot + 1) });
+        nested.set(key, list);
+      }
+    }
+    const out: Record<string, z.ZodType> = {};
+    for (const key of order) out[key] = shape[key] ?? obj(shapeOf(nested.get(key)!));
+    return out;
+  };
 
+  const featureVariant = (t: (typeof FEATURE_TYPES)[number]) => obj({ type: z.literal(t), ...shapeOf(FEATURE_FIELDS[t]) });
   const feature = z.discriminatedUnion(
     'type',
     [
-      obj({
-        type: featureTag('plane'),
-        // A plane steeper than vertical has no height function; tan must stay finite.
-        grade: deg(['>', -90], ['<', 90]).optional(),
-        crossSlope: deg(['>', -90], ['<', 90]).optional(),
-        height: featureHeight().optional(),
-      }),
-      obj({
-        type: featureTag('step'),
-        x: coord(),
-        height: featureHeight(),
-        y: range().optional(),
-        edgeRadius: len(['≥', 0]).optional(),
-      }),
-      obj({
-        type: featureTag('block'),
-        x: range(),
-        y: range(),
-        height: featureHeight(),
-        edgeRadius: len(['≥', 0]).optional(),
-      }),
-      obj({
-        type: featureTag('rock'),
-        x: coord(),
-        y: coord(),
-        height: len(['>', 0], ['≤', P.heightMaxM]),
-        radius: len(['>', 0], ['≤', P.coordMaxM]),
-      }),
-      obj({
-        type: featureTag('ramp'),
-        x: coord(),
-        angle: deg(['>', -90], ['<', 90]),
-        length: len(['>', 0], ['≤', P.coordMaxM]),
-        y: range().optional(),
-      }),
-      obj({
-        type: featureTag('profile'),
-        axis: oneOf(['x', 'y'] as const),
-        points: profilePoints(),
-        across: range().optional(),
-      }),
-      obj({
-        type: featureTag('grid'),
-        origin: pair('x, y', 'length', coord),
-        spacing: len(['>', 0], ['≤', P.coordMaxM]),
-        cols: int(2),
-        rows: int(2),
-        heights: gridHeights(),
-      }),
+      featureVariant('plane'),
+      featureVariant('step'),
+      featureVariant('block'),
+      featureVariant('rock'),
+      featureVariant('ramp'),
+      featureVariant('profile'),
+      featureVariant('grid'),
     ],
     {
       error: (iss: RawIssue) => {
@@ -326,61 +338,18 @@ export function buildScenarioSchema(u: UnitSystem) {
     },
   );
 
-  const tyre = obj({
-    radius: len(['>', 0], ['≤', P.tyreRadiusMaxM]),
-    width: len(['>', 0]),
-    stiffness: num('stiffness', ['>', 0]),
-  });
-
-  const axle = obj({
-    type: oneOf(SUSPENSION_TYPES),
-    wheelRate: num('stiffness', ['>', 0]),
-    // Travel from ride height; 0 is allowed (a locked corner, a bump stop at rest).
-    bump: len(['≥', 0], ['≤', P.travelMaxM]),
-    droop: len(['≥', 0], ['≤', P.travelMaxM]),
-    antiRoll: num('rollStiffness', ['≥', 0]).optional(),
-    // A roll centre may sit below the ground (some independent layouts), so only plausibility bounds apply.
-    rollCentreHeight: len(['≥', -P.cgHeightMaxM], ['≤', P.cgHeightMaxM]),
-    springSpacing: len(['>', 0], ['≤', P.trackMaxM]).optional(),
-  });
-
-  const payloadItem = obj({
-    label: text(L.nameChars, true),
-    mass: mass(['>', 0], ['≤', P.massMaxKg]),
-    behindFrontAxle: coord(),
-    height: len(['≥', 0], ['≤', P.cgHeightMaxM]),
-    leftOfCentre: coord().optional(),
-  });
-
-  const body = obj({
-    frontOverhang: len(['≥', 0], ['≤', P.wheelbaseMaxM]).optional(),
-    rearOverhang: len(['≥', 0], ['≤', P.wheelbaseMaxM]).optional(),
-    width: len(['>', 0], ['≤', P.trackMaxM]).optional(),
-    bellyClearance: len(['>', 0], ['≤', P.cgHeightMaxM]).optional(),
-    frontBumperClearance: len(['>', 0], ['≤', P.cgHeightMaxM]).optional(),
-    rearBumperClearance: len(['>', 0], ['≤', P.cgHeightMaxM]).optional(),
-    roofHeight: len(['>', 0], ['≤', P.cgHeightMaxM]).optional(),
-  });
+  const tyre = obj(shapeOf(TYRE_FIELDS));
+  const axle = obj({ type: oneOf(SUSPENSION_TYPES), ...shapeOf(AXLE_FIELDS) });
+  const payloadItem = obj({ label: text(L.nameChars, true), ...shapeOf(PAYLOAD_FIELDS) });
 
   const vehicle = obj({
     name: text(L.nameChars, true),
-    wheelbase: len(['>', 0], ['≤', P.wheelbaseMaxM]),
-    track: obj({ front: len(['>', 0], ['≤', P.trackMaxM]), rear: len(['>', 0], ['≤', P.trackMaxM]) }),
-    mass: mass(['>', 0], ['≤', P.massMaxKg]),
-    cg: obj({
-      // Within the wheelbase: checked against wheelbase in crossChecks.
-      behindFrontAxle: coord(),
-      height: len(['>', 0], ['≤', P.cgHeightMaxM]),
-      // Within half the narrower track: checked in crossChecks.
-      leftOfCentre: coord().optional(),
-    }),
-    // Per axle; a wheel always weighs something, and the sum must stay below the mass (crossChecks).
-    unsprungMass: obj({ front: mass(['>', 0]), rear: mass(['>', 0]) }),
+    ...shapeOf(VEHICLE_FIELDS),
     tyre,
     tyreRear: tyre.optional(),
     suspension: obj({ front: axle, rear: axle }),
     payload: list(payloadItem, 0, L.payloadItems, 'payload items').optional(),
-    body: body.optional(),
+    body: obj(shapeOf(BODY_FIELDS)).optional(),
   });
 
   const downhill = z.unknown().transform((v, ctx): number | DownhillName => {
@@ -421,8 +390,8 @@ export function buildScenarioSchema(u: UnitSystem) {
     return z.NEVER;
   });
   const axleTravel = obj({
-    bump: len(['≥', 0], ['≤', P.travelMaxM]).optional(),
-    droop: len(['≥', 0], ['≤', P.travelMaxM]).optional(),
+    bump: len(...TRAVEL).optional(),
+    droop: len(...TRAVEL).optional(),
   });
   const build = obj({
     name: text(L.nameChars, true),
@@ -432,9 +401,9 @@ export function buildScenarioSchema(u: UnitSystem) {
       bodyMassShare: num('ratio', ['>', 0], ['≤', 1]).optional(),
     }).optional(),
     tyre: obj({
-      radius: len(['>', 0], ['≤', P.tyreRadiusMaxM]),
-      width: len(['>', 0]).optional(),
-      stiffness: num('stiffness', ['>', 0]).optional(),
+      radius: len(...TYRE_RADIUS),
+      width: len(...TYRE_WIDTH).optional(),
+      stiffness: num('stiffness', ...TYRE_STIFFNESS).optional(),
     }).optional(),
     wheels: obj({
       axle: oneOf(['front', 'rear', 'both'] as const).optional(),
@@ -458,28 +427,16 @@ export function buildScenarioSchema(u: UnitSystem) {
     }),
     name: text(L.nameChars, true),
     units: oneOf(UNIT_SYSTEMS),
-    notes: text(L.notesChars, false).optional(),
+    notes: text(L.notesChars, false, true).optional(),
     vehicle,
     terrain: obj({ features: list(feature, 0, L.features, 'features') }),
-    pose: obj({ x: coord().optional(), y: coord().optional(), heading: heading().optional() }).optional(),
-    tilt: obj({
-      // Past ±180° the table would come round again; 180° is upside down.
-      angle: deg(['≥', -180], ['≤', 180]).optional(),
-      downhill: downhill.optional(),
-    }).optional(),
-    path: obj({
-      from: pair('x, y', 'length', coord),
-      to: pair('x, y', 'length', coord),
-      step: len(['>', 0]).optional(),
-      heading: heading().optional(),
-    })
+    pose: obj(shapeOf(POSE_FIELDS)).optional(),
+    tilt: obj({ ...shapeOf(TILT_FIELDS), downhill: downhill.optional() }).optional(),
+    path: obj({ ...shapeOf(PATH_FIELDS), heading: rowType(PATH_HEADING_FIELD) })
       .nullable()
       .optional(),
     builds: list(build, 0, B.builds, 'builds').optional(),
-    ground: obj({
-      // A friction coefficient above 3 is no tyre on any ground (Noon 1994 lists 0.1 to 0.75 on roads).
-      friction: num('ratio', ['>', 0], ['≤', 3]).optional(),
-    }).optional(),
+    ground: obj(shapeOf(GROUND_FIELDS)).optional(),
   });
 }
 

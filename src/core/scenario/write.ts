@@ -1,11 +1,29 @@
 /**
- * Core `Scenario` (SI) → scenario file data, in metric or imperial units. Every field is written
- * out (no defaults left implicit), so `parseScenario(scenarioToFile(s))` gives back `s`.
+ * Core `Scenario` (SI) → scenario file data, in metric or imperial units, row by row from the
+ * field table (fields.ts). Every field is written out (no defaults left implicit), so
+ * `parseScenario(scenarioToFile(s))` gives back `s` exactly; each number is the shortest decimal
+ * in the file's unit that reads back as the same SI value (`fileNumber`), so a value typed in the
+ * file's unit is written as typed (1720 lb, not 1719.9999999999998).
  */
-import type { AxleSuspension, TerrainFeature, TyreSpec } from '../model/types';
 import type { Scenario, UnitSystem } from './types';
 import { DOWNHILL_NAMES, type DownhillName } from './schema';
-import { RAD_PER_DEG, fromSI } from './units';
+import {
+  AXLE_FIELDS,
+  BODY_FIELDS,
+  FEATURE_FIELDS,
+  GROUND_FIELDS,
+  PATH_FIELDS,
+  PATH_HEADING_FIELD,
+  PAYLOAD_FIELDS,
+  POSE_FIELDS,
+  RAD_PER_DEG,
+  TILT_FIELDS,
+  TYRE_FIELDS,
+  VEHICLE_FIELDS,
+  fileNumber,
+  rowsToFile,
+  type FieldRow,
+} from './fields';
 import { buildsToFile } from './builds';
 
 /** JSON-ready scenario file data. */
@@ -13,103 +31,37 @@ export type ScenarioFileObject = Record<string, unknown>;
 
 /** Write a scenario in its file form. @default units the scenario's own `units` */
 export function scenarioToFile(s: Scenario, units: UnitSystem = s.units): ScenarioFileObject {
-  const m = (v: number) => fromSI('length', v, units);
-  const kg = (v: number) => fromSI('mass', v, units);
-  const deg = (v: number) => fromSI('angle', v, units);
-  const range = (r: readonly [number, number]) => [m(r[0]), m(r[1])];
+  const file = (rows: readonly FieldRow[], si: unknown, head: Record<string, unknown> = {}) => rowsToFile(rows, si, units, head);
   const v = s.vehicle;
-  const tyre = (t: TyreSpec) => ({ radius: m(t.radiusM), width: m(t.widthM), stiffness: fromSI('stiffness', t.stiffnessNPerM, units) });
-  const axle = (a: AxleSuspension) => ({
-    type: a.type,
-    wheelRate: fromSI('stiffness', a.wheelRateNPerM, units),
-    bump: m(a.bumpM),
-    droop: m(a.droopM),
-    antiRoll: fromSI('rollStiffness', a.antiRollNmPerRad, units),
-    rollCentreHeight: m(a.rollCentreHeightM),
-    ...(a.springSpacingM === undefined ? {} : { springSpacing: m(a.springSpacingM) }),
-  });
-  const feature = (f: TerrainFeature): Record<string, unknown> => {
-    switch (f.type) {
-      case 'plane':
-        return { type: 'plane', grade: deg(f.gradeRad), crossSlope: deg(f.crossSlopeRad), height: m(f.heightM) };
-      case 'step':
-        return {
-          type: 'step',
-          x: m(f.xM),
-          height: m(f.heightM),
-          ...(f.yRangeM ? { y: range(f.yRangeM) } : {}),
-          edgeRadius: m(f.edgeRadiusM),
-        };
-      case 'block':
-        return { type: 'block', x: range(f.xRangeM), y: range(f.yRangeM), height: m(f.heightM), edgeRadius: m(f.edgeRadiusM) };
-      case 'rock':
-        return { type: 'rock', x: m(f.xM), y: m(f.yM), height: m(f.heightM), radius: m(f.radiusM) };
-      case 'ramp':
-        return { type: 'ramp', x: m(f.xM), angle: deg(f.angleRad), length: m(f.lengthM), ...(f.yRangeM ? { y: range(f.yRangeM) } : {}) };
-      case 'profile':
-        return {
-          type: 'profile',
-          axis: f.axis,
-          points: f.points.map((p) => [m(p[0]), m(p[1])]),
-          ...(f.acrossM ? { across: range(f.acrossM) } : {}),
-        };
-      case 'grid': {
-        const heights: number[] = new Array(f.heightsM.length);
-        for (let i = 0; i < heights.length; i++) heights[i] = m(f.heightsM[i]);
-        return { type: 'grid', origin: [m(f.originM[0]), m(f.originM[1])], spacing: m(f.spacingM), cols: f.cols, rows: f.rows, heights };
-      }
-    }
-  };
   // A downhill direction that is exactly one of the named ones is written by name.
-  let downhill: number | DownhillName = deg(s.tilt.downhillRad);
+  let downhill: number | DownhillName = fileNumber('angle', s.tilt.downhillRad, units);
   for (const name of Object.keys(DOWNHILL_NAMES) as DownhillName[]) {
     if (s.tilt.downhillRad === DOWNHILL_NAMES[name] * RAD_PER_DEG) downhill = name;
   }
+  const vehicle = file(VEHICLE_FIELDS, v, { name: v.name });
+  vehicle.tyre = file(TYRE_FIELDS, v.tyreFront);
+  vehicle.tyreRear = file(TYRE_FIELDS, v.tyreRear);
+  vehicle.suspension = {
+    front: file(AXLE_FIELDS, v.suspensionFront, { type: v.suspensionFront.type }),
+    rear: file(AXLE_FIELDS, v.suspensionRear, { type: v.suspensionRear.type }),
+  };
+  vehicle.payload = v.payload.map((p) => file(PAYLOAD_FIELDS, p, { label: p.label }));
+  vehicle.body = file(BODY_FIELDS, v.body);
   const out: ScenarioFileObject = {
     version: s.version,
     name: s.name,
     units,
     notes: s.notes,
-    vehicle: {
-      name: v.name,
-      wheelbase: m(v.wheelbaseM),
-      track: { front: m(v.trackFrontM), rear: m(v.trackRearM) },
-      mass: kg(v.massKg),
-      cg: { behindFrontAxle: m(v.cg.behindFrontAxleM), height: m(v.cg.heightM), leftOfCentre: m(v.cg.leftOfCentreM) },
-      unsprungMass: { front: kg(v.unsprungMassFrontKg), rear: kg(v.unsprungMassRearKg) },
-      tyre: tyre(v.tyreFront),
-      tyreRear: tyre(v.tyreRear),
-      suspension: { front: axle(v.suspensionFront), rear: axle(v.suspensionRear) },
-      payload: v.payload.map((p) => ({
-        label: p.label,
-        mass: kg(p.massKg),
-        behindFrontAxle: m(p.behindFrontAxleM),
-        height: m(p.heightM),
-        leftOfCentre: m(p.leftOfCentreM),
-      })),
-      body: {
-        frontOverhang: m(v.body.frontOverhangM),
-        rearOverhang: m(v.body.rearOverhangM),
-        width: m(v.body.widthM),
-        bellyClearance: m(v.body.bellyClearanceM),
-        frontBumperClearance: m(v.body.frontBumperClearanceM),
-        rearBumperClearance: m(v.body.rearBumperClearanceM),
-        roofHeight: m(v.body.roofHeightM),
-      },
-    },
-    terrain: { features: s.terrain.features.map(feature) },
-    pose: { x: m(s.pose.xM), y: m(s.pose.yM), heading: deg(s.pose.headingRad) },
-    tilt: { angle: deg(s.tilt.angleRad), downhill },
+    vehicle,
+    terrain: { features: s.terrain.features.map((f) => file(FEATURE_FIELDS[f.type], f, { type: f.type })) },
+    pose: file(POSE_FIELDS, s.pose),
+    tilt: { ...file(TILT_FIELDS, s.tilt), downhill },
   };
   if (s.path) {
-    out.path = {
-      from: [m(s.path.fromM[0]), m(s.path.fromM[1])],
-      to: [m(s.path.toM[0]), m(s.path.toM[1])],
-      step: m(s.path.stepM),
-      ...(s.path.headingRad === null ? {} : { heading: deg(s.path.headingRad) }),
-    };
+    out.path = file(PATH_FIELDS, s.path);
+    if (s.path.headingRad !== null) file([PATH_HEADING_FIELD], s.path, out.path as Record<string, unknown>);
   }
-  out.ground = { friction: s.friction };
+  out.ground = file(GROUND_FIELDS, s);
   if (s.builds && s.builds.length > 0) out.builds = buildsToFile(s.builds, units);
   return out;
 }

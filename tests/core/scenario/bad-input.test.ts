@@ -3,17 +3,16 @@
  * Plumbline's own file-format contract (docs in src/core/scenario/schema.ts); the ranges come
  * from the checks documented there.
  */
-import { describe, expect, it, vi } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { parseScenario, parseScenarioText, SCENARIO_LIMITS } from '../../../src/core/index';
-import { baseFile, DELETE, edit } from './helpers';
+import { baseFile, DELETE, edit, imperialBaseFile } from './helpers';
 
 // Core tests must not pull in UI libraries: any accidental import then fails here.
-vi.mock('react', () => ({}));
-vi.mock('three', () => ({}));
 
 type Case = { name: string; input: () => unknown; errors: string[] };
 
 const base = baseFile;
+const imperialBase = imperialBaseFile;
 const withFeature = (f: unknown) => {
   const o = base();
   o.terrain.features.push(f);
@@ -23,13 +22,13 @@ const grid = (over: Record<string, unknown>) => ({ type: 'grid', origin: [0, 0],
 
 const CASES: Case[] = [
   { name: 'missing wheelbase', input: () => edit(base(), 'vehicle.wheelbase', DELETE), errors: ['vehicle.wheelbase: required (m)'] },
-  { name: 'negative track', input: () => edit(base(), 'vehicle.track.front', -1.6), errors: ['vehicle.track.front: must be > 0 m, got -1.6'] },
+  { name: 'negative track', input: () => edit(base(), 'vehicle.track.front', -1.6), errors: ['vehicle.track.front: must be ≥ 0.3 m, got -1.6'] },
   {
     name: 'negative track, imperial file',
-    input: () => edit(edit(base(), 'units', 'imperial'), 'vehicle.track.front', -1.6),
-    errors: ['vehicle.track.front: must be > 0 in, got -1.6'],
+    input: () => edit(imperialBase(), 'vehicle.track.front', -1.6),
+    errors: ['vehicle.track.front: must be ≥ 11.811 in, got -1.6'],
   },
-  { name: 'zero mass', input: () => edit(base(), 'vehicle.mass', 0), errors: ['vehicle.mass: must be > 0 kg, got 0'] },
+  { name: 'zero mass', input: () => edit(base(), 'vehicle.mass', 0), errors: ['vehicle.mass: must be ≥ 20 kg, got 0'] },
   { name: 'NaN mass', input: () => edit(base(), 'vehicle.mass', NaN), errors: ['vehicle.mass: must be a finite number in kg, got NaN'] },
   {
     name: 'infinite wheelbase',
@@ -48,7 +47,7 @@ const CASES: Case[] = [
   },
   {
     name: 'wheelbase past the plausible limit, imperial (20 m = 787.4016 in)',
-    input: () => edit(edit(base(), 'units', 'imperial'), 'vehicle.wheelbase', 800),
+    input: () => edit(imperialBase(), 'vehicle.wheelbase', 800),
     errors: ['vehicle.wheelbase: must be ≤ 787.4016 in, got 800'],
   },
   {
@@ -61,7 +60,7 @@ const CASES: Case[] = [
     input: () => edit(base(), 'vehicle.cg.behindFrontAxle', -0.2),
     errors: ['vehicle.cg.behindFrontAxle: must lie within the wheelbase (0 to 2.8 m), got -0.2'],
   },
-  { name: 'CG height zero', input: () => edit(base(), 'vehicle.cg.height', 0), errors: ['vehicle.cg.height: must be > 0 m, got 0'] },
+  { name: 'CG height zero', input: () => edit(base(), 'vehicle.cg.height', 0), errors: ['vehicle.cg.height: must be ≥ 0.05 m, got 0'] },
   {
     name: 'CG offset past half the narrower track',
     input: () => edit(edit(base(), 'vehicle.track.rear', 1.5), 'vehicle.cg.leftOfCentre', -0.8),
@@ -80,11 +79,11 @@ const CASES: Case[] = [
   {
     name: 'zero wheel rate',
     input: () => edit(base(), 'vehicle.suspension.front.wheelRate', 0),
-    errors: ['vehicle.suspension.front.wheelRate: must be > 0 N/m, got 0'],
+    errors: ['vehicle.suspension.front.wheelRate: must be ≥ 1000 N/m, got 0'],
   },
   {
     name: 'negative anti-roll, imperial',
-    input: () => edit(edit(base(), 'units', 'imperial'), 'vehicle.suspension.front.antiRoll', -5),
+    input: () => edit(imperialBase(), 'vehicle.suspension.front.antiRoll', -5),
     errors: ['vehicle.suspension.front.antiRoll: must be ≥ 0 lbf·ft/deg, got -5'],
   },
   {
@@ -256,7 +255,7 @@ const CASES: Case[] = [
       return o;
     },
     errors: [
-      'vehicle.track.rear: must be > 0 m, got 0',
+      'vehicle.track.rear: must be ≥ 0.3 m, got 0',
       'vehicle.mass: required (kg)',
       'vehicle.suspension.front.droop: must be ≥ 0 m, got -0.1',
       'pose.heading: must be ≤ 360 deg, got 400',

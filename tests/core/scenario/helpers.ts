@@ -34,6 +34,26 @@ export function baseFile(): Record<string, any> {
   };
 }
 
+/**
+ * The same small scenario as an imperial file (in, lb, lbf/in, lbf·ft/deg): the base file's
+ * chassis and tyres in inches (invented, rounded), everything else as in `baseFile`.
+ */
+export function imperialBaseFile(): Record<string, any> {
+  const o = baseFile();
+  o.units = 'imperial';
+  Object.assign(o.vehicle, { wheelbase: 110, track: { front: 63, rear: 63 }, mass: 4400 });
+  o.vehicle.cg = { behindFrontAxle: 51, height: 29.5 };
+  o.vehicle.unsprungMass = { front: 220, rear: 310 };
+  o.vehicle.tyre = { radius: 15, width: 10, stiffness: 1700 };
+  o.vehicle.suspension.front = { type: 'independent', wheelRate: 230, bump: 3, droop: 4, antiRoll: 600, rollCentreHeight: 12 };
+  o.vehicle.suspension.rear = { type: 'solid', wheelRate: 260, bump: 4, droop: 5, rollCentreHeight: 20, springSpacing: 40 };
+  o.terrain.features = [
+    { type: 'plane', grade: 0, crossSlope: 0, height: 0 },
+    { type: 'step', x: 80, height: 12 },
+  ];
+  return o;
+}
+
 /** A copy of `o` with the value at a dotted path set (or deleted when `value` is the DELETE marker). */
 export const DELETE = Symbol('delete');
 export function edit(o: Record<string, any>, path: string, value: unknown): Record<string, any> {

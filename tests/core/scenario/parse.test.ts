@@ -1,6 +1,6 @@
 /** Scenario parsing: the demo file, defaults, warnings, and the round trip through the file form. */
 import { readFileSync } from 'node:fs';
-import { describe, expect, it, vi } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import {
   defaultBodyShape,
   parseScenario,
@@ -10,8 +10,6 @@ import {
 } from '../../../src/core/index';
 import { baseFile, edit, expectClose, FIXTURE_REL, ROUND_TRIP_REL } from './helpers';
 
-vi.mock('react', () => ({}));
-vi.mock('three', () => ({}));
 
 const DEMO = 'assets/scenarios/side-hill-stock.json';
 const IMPERIAL = 'tests/fixtures/side-hill-stock-imperial.json';
@@ -54,6 +52,13 @@ function everythingFile(units: 'metric' | 'imperial' = 'metric'): Record<string,
   o.tilt = { angle: 17.5, downhill: 225 };
   o.path = { from: [-2, 0.1], to: [18, 0.3], step: 0.1, heading: 3 };
   o.ground = { friction: 0.55 };
+  if (units === 'imperial') {
+    // The chassis in inches (an imperial file of the same build), above the physical lower bounds.
+    Object.assign(o.vehicle, { wheelbase: 110, track: { front: 63, rear: 63 } });
+    Object.assign(o.vehicle.cg, { behindFrontAxle: 52, height: 29.5 });
+    o.vehicle.tyre = { radius: 15, width: 10, stiffness: 1700 };
+    o.vehicle.tyreRear = { radius: 15.75, width: 10.6, stiffness: 1750 };
+  }
   return o;
 }
 

@@ -4,7 +4,7 @@
  * exactly; so 1 in = 0.9144 / 36 m = 0.0254 m and 1 ft = 0.3048 m. The pound-force is one pound
  * under standard gravity, gn = 9.80665 m/s² (3rd CGPM, 1901): 1 lbf = 4.4482216152605 N.
  */
-import { describe, expect, it, vi } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import {
   KG_PER_LB,
   M_PER_FT,
@@ -19,8 +19,6 @@ import {
 } from '../../../src/core/index';
 import { baseFile, edit } from './helpers';
 
-vi.mock('react', () => ({}));
-vi.mock('three', () => ({}));
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 
@@ -82,8 +80,10 @@ describe('an imperial file is read in imperial units', () => {
   it('lengths, masses, stiffnesses, anti-roll, angles', () => {
     let o = edit(baseFile(), 'units', 'imperial');
     o = edit(o, 'vehicle.wheelbase', 110); // in
+    o = edit(o, 'vehicle.track', { front: 63, rear: 63 }); // in
+    o = edit(o, 'vehicle.cg.height', 29.5); // in
+    o = edit(o, 'vehicle.tyre', { radius: 15, width: 10, stiffness: 1800 }); // in, in, lbf/in
     o = edit(o, 'vehicle.mass', 4400); // lb
-    o = edit(o, 'vehicle.tyre.stiffness', 1800); // lbf/in
     o = edit(o, 'vehicle.suspension.front.antiRoll', 500); // lbf·ft/deg
     o = edit(o, 'vehicle.suspension.front.wheelRate', 250); // lbf/in
     o = edit(o, 'terrain.features', [{ type: 'plane', crossSlope: 15, height: 2 }]);
