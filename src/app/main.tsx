@@ -119,7 +119,16 @@ async function start(root: HTMLElement): Promise<void> {
     navigator.serviceWorker.addEventListener('controllerchange', () => {
       if (hadController) session.setState({ updateReady: true });
     });
-    const register = () => void navigator.serviceWorker.register('./sw.js', { updateViaCache: 'none' }).then((r) => r.update()).catch(() => undefined);
+    // Look for a new build at start, whenever the app comes back into view, and every half hour.
+    const register = () =>
+      void navigator.serviceWorker
+        .register('./sw.js', { updateViaCache: 'none' })
+        .then((r) => {
+          const check = () => void r.update().catch(() => undefined);
+          document.addEventListener('visibilitychange', () => document.visibilityState === 'visible' && check());
+          setInterval(check, 30 * 60 * 1000);
+        })
+        .catch(() => undefined);
     if (document.readyState === 'complete') register();
     else window.addEventListener('load', register);
   }
