@@ -15,14 +15,17 @@ fi
 # Where the tools are looked for (tests of this script point it at an empty directory).
 BIN="${PLUMBLINE_OS_BIN:-/usr/bin}"
 
-missing=()
-[ -x "$BIN/chromium" ] || missing+=("chromium")
-for tool in gdalinfo gdal_grid gdaldem gdallocationinfo; do
-  [ -x "$BIN/$tool" ] || missing+=("$tool")
-done
-if [ ! -x "$BIN/gdal_fillnodata" ] && [ ! -x "$BIN/gdal_fillnodata.py" ]; then
-  missing+=("gdal_fillnodata")
-fi
+find_missing() {
+  missing=()
+  [ -x "$BIN/chromium" ] || missing+=("chromium")
+  for tool in gdalinfo gdal_grid gdaldem gdallocationinfo; do
+    [ -x "$BIN/$tool" ] || missing+=("$tool")
+  done
+  if [ ! -x "$BIN/gdal_fillnodata" ] && [ ! -x "$BIN/gdal_fillnodata.py" ]; then
+    missing+=("gdal_fillnodata")
+  fi
+}
+find_missing
 
 if [ "${#missing[@]}" -eq 0 ]; then
   exit 0
@@ -63,4 +66,9 @@ echo "plumbline: installing Debian's chromium and gdal-bin (apt-get, about a min
 export DEBIAN_FRONTEND=noninteractive
 "${sudo_cmd[@]}" apt-get update -qq
 "${sudo_cmd[@]}" apt-get install -y -qq chromium gdal-bin >/dev/null
+find_missing
+if [ "${#missing[@]}" -ne 0 ]; then
+  echo "plumbline: after apt-get install, still missing ${missing[*]} in $BIN; install them by hand and run npm test again" >&2
+  exit 1
+fi
 echo "plumbline: OS packages installed" >&2

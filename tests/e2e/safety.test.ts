@@ -90,6 +90,8 @@ describe('share links and reloads', () => {
     await expect.poll(async () => (await state(page)).xM).toBe(1.7);
     await expect.poll(() => savedX(page)).toBe(1.7);
     const linked = { ...demoScenario(), name: 'Linked side-hill (invented)', pose: { ...demoScenario().pose, xM: 0.9 } };
+    // From another page, as a link is followed (a hash change alone would not load the page again).
+    await page.goto('about:blank');
     await open(page, shareHash(linked));
     await page.getByTestId('link-opened').waitFor();
     expect(await page.getByTestId('link-opened').textContent()).toContain('kept in the garage');
@@ -106,6 +108,7 @@ describe('share links and reloads', () => {
     expect((await state(page)).xM).toBe(1.25);
     expect(await page.getByTestId('link-opened').count()).toBe(0);
     // Undo over an opened link: open it again, then step back.
+    await page.goto('about:blank');
     await open(page, shareHash(linked));
     await page.getByTestId('link-opened').waitFor();
     expect((await state(page)).xM).toBe(0.9);
@@ -333,6 +336,7 @@ describe('the analysis worker fails loudly', () => {
       }, fault);
       await page.reload();
       await waitForScene(page);
+      await page.locator('#rose-h').click();
       await page.getByTestId('rose-run').click();
       await page.getByTestId('rose-result').waitFor({ timeout: 60_000 });
       counts.accepted++;
@@ -351,6 +355,7 @@ describe('the analysis worker fails loudly', () => {
     });
     await page.reload();
     await waitForScene(page);
+    await page.locator('#rose-h').click();
     await page.getByTestId('rose-run').click();
     await expect.poll(() => page.locator('text=/Failed: the analysis worker stopped replying/').count(), { timeout: 30_000 }).toBe(1);
     expect(await page.getByTestId('rose-result').count()).toBe(0);
