@@ -114,10 +114,12 @@ async function start(root: HTMLElement): Promise<void> {
   );
 
   if ('serviceWorker' in navigator && import.meta.env.PROD) {
-    const hadController = navigator.serviceWorker.controller !== null;
     // A new build's worker takes over (it skips waiting): the page on screen is the old build until reloaded.
+    // The first worker taking over a page that had none (a first visit) is not a new version.
+    let controlled = navigator.serviceWorker.controller !== null;
     navigator.serviceWorker.addEventListener('controllerchange', () => {
-      if (hadController) session.setState({ updateReady: true });
+      if (controlled) session.setState({ updateReady: true });
+      controlled = true;
     });
     // Look for a new build at start, whenever the app comes back into view, and every half hour.
     const register = () =>
