@@ -1,47 +1,20 @@
 /*
- * Plumbline offline cache (hand-written service worker). On install it caches the app shell and
- * every asset named in index.html; afterwards it answers same-origin GETs from the cache first and
- * adds whatever else is fetched (worker chunks), so the app opens at a trailhead with no signal.
- * The cache name carries the entry script's name, so a new build replaces the old cache.
+ * Plumbline offline cache (hand-written service worker). Each build writes its own id and file list
+ * into this script (the build step in vite.config.ts), so every new build is a byte-different worker:
+ * the browser installs it at the next visit, it takes over at once, and the old build's cache is
+ * deleted on activate. Pages come from the network first (a new build reaches an online user at
+ * once) and from the cache when offline; the build's own files come from the cache first.
  */
+const BUILD = 'dev' /*__PLUMBLINE_BUILD__*/;
+const ASSETS = [/*__PLUMBLINE_ASSETS__*/];
 const PREFIX = 'plumbline-';
-
-async function shellAndAssets() {
-  const res = await fetch('./index.html', { cache: 'no-cache' });
-  const html = await res.clone().text();
-  const urls = new Set(['./', './index.html', './manifest.webmanifest', './icon.svg']);
-  for (const m of html.matchAll(/(?:src|href)="(\.\/assets\/[^"]+)"/g)) urls.add(m[1]);
-  // Chunks loaded later (panels, the analysis worker) are named inside the scripts: follow them,
-  // so that a panel opened for the first time at the trailhead is already in the cache.
-  const todo = [...urls].filter((u) => u.endsWith('.js'));
-  const seen = new Set(todo);
-  while (todo.length > 0) {
-    const js = todo.pop();
-    let text = '';
-    try {
-      text = await (await fetch(js, { cache: 'no-cache' })).text();
-    } catch {
-      continue;
-    }
-    for (const m of text.matchAll(/[`"'](?:\.\/)?([A-Za-z0-9_.-]+-[A-Za-z0-9_-]{8}\.js)[`"']/g)) {
-      const u = `./assets/${m[1]}`;
-      if (!seen.has(u)) {
-        seen.add(u);
-        urls.add(u);
-        todo.push(u);
-      }
-    }
-  }
-  const entry = /assets\/(index-[^"]+\.js)/.exec(html);
-  return { name: PREFIX + (entry ? entry[1] : 'dev'), urls: [...urls], res };
-}
+const CACHE = PREFIX + BUILD;
 
 self.addEventListener('install', (event) => {
   event.waitUntil(
     (async () => {
-      const { name, urls } = await shellAndAssets();
-      const cache = await caches.open(name);
-      await cache.addAll(urls);
+      const cache = await caches.open(CACHE);
+      await cache.addAll(['./', './index.html', ...ASSETS].map((u) => new Request(u, { cache: 'reload' })));
       await self.skipWaiting();
     })(),
   );
@@ -50,18 +23,14 @@ self.addEventListener('install', (event) => {
 self.addEventListener('activate', (event) => {
   event.waitUntil(
     (async () => {
-      let keep = null;
-      try {
-        keep = (await shellAndAssets()).name;
-      } catch {
-        // Offline while activating: keep every cache.
-      }
-      if (keep) {
-        for (const k of await caches.keys()) if (k.startsWith(PREFIX) && k !== keep) await caches.delete(k);
-      }
+      for (const k of await caches.keys()) if (k.startsWith(PREFIX) && k !== CACHE) await caches.delete(k);
       await self.clients.claim();
     })(),
   );
+});
+
+self.addEventListener('message', (event) => {
+  if (event.data === 'build') event.source?.postMessage({ build: BUILD, cache: CACHE });
 });
 
 self.addEventListener('fetch', (event) => {
@@ -70,21 +39,20 @@ self.addEventListener('fetch', (event) => {
   const isPage = req.mode === 'navigate';
   event.respondWith(
     (async () => {
-      // Pages: network first (to pick up a new build), the cached shell when offline.
+      // Pages: network first (to pick up a new build), this build's cached shell when offline.
       if (isPage) {
         try {
           return await fetch(req);
         } catch {
-          return (await caches.match('./index.html', { ignoreSearch: true, ignoreVary: true })) || Response.error();
+          const cache = await caches.open(CACHE);
+          return (await cache.match('./index.html', { ignoreSearch: true, ignoreVary: true })) || Response.error();
         }
       }
-      const hit = await caches.match(req, { ignoreSearch: true, ignoreVary: true });
+      const cache = await caches.open(CACHE);
+      const hit = await cache.match(req, { ignoreSearch: true, ignoreVary: true });
       if (hit) return hit;
       const res = await fetch(req);
-      if (res.ok) {
-        const names = (await caches.keys()).filter((k) => k.startsWith(PREFIX));
-        if (names.length > 0) (await caches.open(names[names.length - 1])).put(req, res.clone());
-      }
+      if (res.ok) await cache.put(req, res.clone());
       return res;
     })(),
   );

@@ -2,6 +2,7 @@ import { Suspense, lazy, useEffect } from 'react';
 import { Scene } from '../view/Scene';
 import type { SceneApi } from '../view/sceneContext';
 import { CautionBanner } from './panels/CautionBanner';
+import { GaragePanel } from './panels/GaragePanel';
 import { PanelBoundary } from './panels/PanelBoundary';
 import { ImportErrors } from './panels/ImportErrors';
 import { LoadsPanel } from './panels/LoadsPanel';
@@ -95,6 +96,9 @@ export function App({ onSceneApi }: AppProps) {
             <Suspense fallback={null}>
               <ReportPanel />
             </Suspense>
+          </PanelBoundary>
+          <PanelBoundary name="garage">
+            <GaragePanel />
           </PanelBoundary>
         </aside>
       </main>

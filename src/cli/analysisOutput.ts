@@ -5,10 +5,23 @@
 import type { CliIO } from './command';
 import { UsageError } from './command';
 
-/** One CSV field (RFC 4180): quoted when it holds a comma, quote or line break. */
-function csvField(v: string | number | boolean | null | undefined): string {
+/**
+ * Text that a spreadsheet would read as a formula (or that starts with a tab or carriage return,
+ * which some spreadsheets strip before reading the rest as one): OWASP "CSV Injection" guidance.
+ */
+const FORMULA_START = /^[=+\-@\t\r]/;
+
+/**
+ * One CSV field (RFC 4180): quoted when it holds a comma, quote or line break. A text cell that
+ * begins with = + - @, a tab or a carriage return is neutralised as the OWASP CSV-injection
+ * guidance says: prefixed with a single quote, so a spreadsheet shows it as text and never runs it.
+ * Numbers are written as numbers (a negative number stays a number).
+ */
+export function csvField(v: string | number | boolean | null | undefined): string {
   if (v === null || v === undefined) return '';
-  const s = typeof v === 'number' ? (Number.isFinite(v) ? String(Number(v.toPrecision(10))) : '') : String(v);
+  if (typeof v === 'number') return Number.isFinite(v) ? String(Number(v.toPrecision(10))) : '';
+  let s = String(v);
+  if (FORMULA_START.test(s)) s = `'${s}`;
   return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
 }
 

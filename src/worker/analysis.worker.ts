@@ -74,7 +74,32 @@ function handle(req: WorkerRequest): void {
   }
 }
 
+/**
+ * Test-only fault injection (the browser tests set localStorage "plumbline.test.workerFault"; the
+ * client passes it on): on the first attempt (every attempt with ':always'), 'close' ends the worker silently, 'throw' throws
+ * outside the handler, 'hang' never returns. Never set otherwise.
+ */
+function injectFault(req: WorkerRequest & { fault?: string; attempt?: number }): boolean {
+  if (!req.fault) return false;
+  // MODE fails the first attempt only; MODE:always every attempt.
+  const [mode, always] = req.fault.split(':');
+  if (always !== 'always' && req.attempt !== 1) return false;
+  if (mode === 'close') {
+    self.close();
+    return true;
+  }
+  if (mode === 'throw') {
+    setTimeout(() => {
+      throw new Error('injected fault: the worker threw');
+    });
+    return true;
+  }
+  if (mode === 'hang') for (;;);
+  return false;
+}
+
 self.onmessage = (e: MessageEvent<WorkerRequest>) => {
+  if (injectFault(e.data)) return;
   try {
     handle(e.data);
   } catch (err) {

@@ -1,4 +1,8 @@
-/** Runs analyses in the worker with progress and cancel. One worker per job; cancel terminates it. */
+/**
+ * Runs analyses in the worker with progress and cancel. One worker per job; cancel terminates it.
+ * Workers fail loudly: a crash, an unreadable message or silence past the watchdog ends the worker,
+ * re-runs the job once in a fresh one, and then fails with the reason (the panel shows it).
+ */
 import { makeLines, rankLines, type LineSpec, type LineSummary, type RoseResult, type Scenario, type SweepRange } from '../core';
 import type { ReplyOf, WorkerReply, WorkerRequest } from './messages';
 
@@ -14,37 +18,96 @@ let nextId = 1;
 
 type Body<T extends WorkerRequest['type']> = Omit<Extract<WorkerRequest, { type: T }>, 'id'> & { readonly type: T };
 
-/** Starts one job of the given type in a fresh worker. */
-export function runJob<T extends WorkerRequest['type']>(body: Body<T>, onProgress: OnProgress): Job<ReplyOf<T>> {
+/**
+ * A worker that sends nothing (no progress, no result) for this long is taken as hung (ms). Every
+ * analysis reports progress at least once a station or a line, far more often than this.
+ */
+export const WORKER_IDLE_LIMIT_MS = 120_000;
+
+/** Test-only switches (set in localStorage by the browser tests; never set otherwise). */
+function testSwitch(key: string): string | null {
+  try {
+    return typeof localStorage !== 'undefined' ? localStorage.getItem(key) : null;
+  } catch {
+    return null;
+  }
+}
+
+function idleLimitMs(): number {
+  const v = Number(testSwitch('plumbline.test.workerIdleMs'));
+  return Number.isFinite(v) && v > 0 ? v : WORKER_IDLE_LIMIT_MS;
+}
+
+/** Why an attempt ended without a result: the analysis itself failed (not worth re-running) or the worker did. */
+class WorkerLost extends Error {}
+
+/** One attempt in a fresh worker. */
+function attempt<T extends WorkerRequest['type']>(body: Body<T>, onProgress: OnProgress, n: number): Job<ReplyOf<T>> {
   const worker = new Worker(new URL('./analysis.worker.ts', import.meta.url), { type: 'module' });
   const id = nextId++;
   let reject: (e: Error) => void = () => undefined;
+  let timer: ReturnType<typeof setTimeout> | undefined;
+  const limit = idleLimitMs();
   const done = new Promise<ReplyOf<T>>((res, rej) => {
-    reject = rej;
+    const end = (e: Error | null, value?: ReplyOf<T>) => {
+      clearTimeout(timer);
+      worker.terminate();
+      if (e) rej(e);
+      else res(value as ReplyOf<T>);
+    };
+    reject = (e) => end(e);
+    const watch = () => {
+      clearTimeout(timer);
+      timer = setTimeout(() => end(new WorkerLost(`the analysis worker stopped replying (nothing for ${(limit / 1000).toFixed(0)} s)`)), limit);
+    };
+    watch();
     worker.onmessage = (e: MessageEvent<WorkerReply>) => {
       const m = e.data;
       if (m.id !== id) return;
+      watch();
       if (m.type === 'progress') onProgress(m.done, m.total, m.stage);
-      else if (m.type === 'error') {
-        worker.terminate();
-        rej(new Error(m.message));
-      } else if (m.type === body.type) {
-        worker.terminate();
+      else if (m.type === 'error') end(new Error(m.message));
+      else if (m.type === body.type) {
         const { type: _t, id: _i, ...rest } = m;
-        res(rest as unknown as ReplyOf<T>);
+        end(null, rest as unknown as ReplyOf<T>);
       }
     };
     worker.onerror = (e) => {
-      worker.terminate();
-      rej(new Error(e.message || 'worker failed'));
+      e.preventDefault?.();
+      end(new WorkerLost(`the analysis worker failed (${e.message || 'no message'})`));
     };
+    worker.onmessageerror = () => end(new WorkerLost('the analysis worker sent a message that could not be read'));
   });
-  worker.postMessage({ ...body, id } as WorkerRequest);
+  const fault = testSwitch('plumbline.test.workerFault');
+  worker.postMessage({ ...body, id, ...(fault ? { fault, attempt: n } : {}) } as WorkerRequest);
   return {
     done,
     cancel() {
-      worker.terminate();
       reject(new Error('cancelled'));
+    },
+  };
+}
+
+/**
+ * Starts one job of the given type in a fresh worker. A worker that crashes or stops replying
+ * (a watchdog: nothing for WORKER_IDLE_LIMIT_MS) is ended and the job re-run once in a fresh
+ * one; a second loss, or an error from the analysis itself, rejects `done` with the reason.
+ */
+export function runJob<T extends WorkerRequest['type']>(body: Body<T>, onProgress: OnProgress): Job<ReplyOf<T>> {
+  let current = attempt(body, onProgress, 1);
+  let cancelled = false;
+  const done = current.done.catch((e: unknown) => {
+    if (cancelled || !(e instanceof WorkerLost)) throw e;
+    current = attempt(body, onProgress, 2);
+    return current.done.catch((e2: unknown) => {
+      throw new Error(`${(e2 as Error).message}; it had already failed once (${e.message}), so the job was stopped`);
+    });
+  });
+  return {
+    done,
+    cancel() {
+      cancelled = true;
+      current.cancel();
     },
   };
 }

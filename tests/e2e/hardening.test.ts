@@ -236,6 +236,8 @@ describe('saved work', () => {
 
   it('a full localStorage keeps the scenario in the tab and says autosave failed; freeing space saves again', async () => {
     const ctx = await newContext();
+    // No IndexedDB either (else a full localStorage saves there instead): nowhere left to save.
+    await ctx.addInitScript(() => Object.defineProperty(window, 'indexedDB', { value: undefined, configurable: true }));
     const page = await ctx.newPage();
     await open(page);
     const filled = await page.evaluate((key) => {

@@ -1,7 +1,71 @@
 import { useState } from 'react';
+import { useStore } from 'zustand';
 import { SCENARIO_LIMITS, scenarioToFile, type UnitSystem } from '../../core';
-import { shareHash } from '../../store/persist';
+import { shareLink, type SaveStatus } from '../../store/persist';
+import { session } from '../../store/session';
+import { createStore } from 'zustand/vanilla';
 import { usePlumb, usePlumbStore } from '../storeContext';
+
+/** Stands in for the save status before the autosave starts (never changes). */
+const NO_STATUS = createStore<SaveStatus>()(() => ({ state: 'saved', where: null, rev: 0, newer: null, failure: null }));
+
+/** Notes about this visit: a link opened, another tab's newer work, a failed save, a new version. */
+function SessionNotes() {
+  const store = usePlumbStore();
+  const linkOpened = useStore(session, (s) => s.linkOpened);
+  const updateReady = useStore(session, (s) => s.updateReady);
+  const controller = useStore(session, (s) => s.autosave);
+  const status = useStore(controller?.status ?? NO_STATUS);
+  const time = (ms: number) => new Date(ms).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit', second: '2-digit' });
+  return (
+    <>
+      {linkOpened ? (
+        <div className="session-note" role="status" data-testid="link-opened">
+          Opened a shared link: {linkOpened.name}.{' '}
+          {linkOpened.keptAs ? <>Your earlier work is kept in the garage as “{linkOpened.keptAs}” and is one Undo away. </> : null}
+          <button
+            type="button"
+            data-testid="link-keep-mine"
+            disabled={!linkOpened.keptAs && store.getState().past.length === 0}
+            onClick={() => {
+              store.getState().undo();
+              session.setState({ linkOpened: null });
+            }}
+          >
+            Back to my earlier work
+          </button>{' '}
+          <button type="button" data-testid="link-dismiss" onClick={() => session.setState({ linkOpened: null })}>
+            Keep the link
+          </button>
+        </div>
+      ) : null}
+      {status.state === 'held' && status.newer ? (
+        <div className="session-note warn" role="alert" data-testid="tab-conflict">
+          Another tab saved newer work at {time(status.newer.savedAtMs)}. This tab&apos;s edits are not being saved until you choose:{' '}
+          <button type="button" data-testid="conflict-load" onClick={() => void controller?.loadNewer()}>
+            Load the other tab&apos;s work
+          </button>{' '}
+          <button type="button" data-testid="conflict-keep" onClick={() => controller?.keepMine()}>
+            Keep this tab&apos;s (save over it)
+          </button>
+        </div>
+      ) : null}
+      {status.state === 'failed' && status.failure ? (
+        <div className="session-note warn" role="alert" data-testid="save-status">
+          {status.failure}
+        </div>
+      ) : null}
+      {updateReady ? (
+        <div className="session-note" role="status" data-testid="update-ready">
+          A new version of Plumbline is ready.{' '}
+          <button type="button" data-testid="update-reload" onClick={() => location.reload()}>
+            Reload
+          </button>
+        </div>
+      ) : null}
+    </>
+  );
+}
 
 /** Title, units, undo/redo and the scenario file: import, export, share link. */
 export function TopBar() {
@@ -24,18 +88,26 @@ export function TopBar() {
     setTimeout(() => URL.revokeObjectURL(url), 1000);
   };
 
+  const [shareUrl, setShareUrl] = useState<string | null>(null);
   const share = async (): Promise<void> => {
-    const url = `${location.origin}${location.pathname}${shareHash(store.getState().scenario)}`;
-    history.replaceState(null, '', url);
+    setShareUrl(null);
+    const link = shareLink(`${location.origin}${location.pathname}`, store.getState().scenario);
+    if (!link.ok) {
+      setShareNote(link.message);
+      return;
+    }
+    // The address bar is left alone: a link there would win over later edits at the next reload.
     try {
-      await navigator.clipboard.writeText(url);
+      await navigator.clipboard.writeText(link.url);
       setShareNote('Link copied.');
     } catch {
-      setShareNote('Link is in the address bar.');
+      setShareNote('Copy the link:');
+      setShareUrl(link.url);
     }
   };
 
   return (
+    <>
     <header className="topbar">
       <h1>Plumbline</h1>
       <span className="scenario-name" data-testid="scenario-name" title={name}>
@@ -75,7 +147,14 @@ export function TopBar() {
       <button type="button" data-testid="share" onClick={() => void share()}>
         Share link
       </button>
-      {shareNote ? <span className="share-note">{shareNote}</span> : null}
+      {shareNote ? (
+        <span className="share-note" data-testid="share-note">
+          {shareNote}
+        </span>
+      ) : null}
+      {shareUrl ? <input className="share-url" data-testid="share-url" readOnly value={shareUrl} onFocus={(e) => e.target.select()} /> : null}
     </header>
+    <SessionNotes />
+    </>
   );
 }

@@ -4,7 +4,7 @@ import { EXIT_BAD_INPUT, EXIT_OK, type CommandSpec } from '../command';
 import { formatKeyValues, formatTable } from '../format';
 import { loadScenarioFile, toJsonText } from '../load';
 import { displayUnits } from '../solveScenario';
-import { runLinesParallel } from '../parallel';
+import { LONG_JOB_S, capWorkers, estimateSweepSeconds, runLinesParallel } from '../parallel';
 import { CAUTION, deg, formatCsv, parseRange, progressReporter, round } from '../analysisOutput';
 
 const RAD_PER_DEG = Math.PI / 180;
@@ -47,6 +47,7 @@ export const linesCommand: CommandSpec = {
     { name: 'json', kind: 'flag', description: 'print one JSON object (metres, degrees), lines best first' },
     { name: 'csv', kind: 'flag', description: 'print one CSV row per line, best first' },
     { name: 'quiet', kind: 'flag', description: 'no progress lines on stderr' },
+    { name: 'yes', kind: 'flag', description: 'run a sweep estimated to take more than an hour' },
   ],
   async run(args, io) {
     const file = args.positionals[0];
@@ -75,10 +76,18 @@ export const linesCommand: CommandSpec = {
       io.err(`--workers: must be a whole number ≥ 0, got ${String(workersOpt)}`);
       return EXIT_BAD_INPUT;
     }
+    const job = { vehicle: s.vehicle, terrain: s.terrain, options: { friction: s.friction, tilt: s.tilt.angleRad !== 0 ? s.tilt : undefined }, lines };
+    const threads = workersOpt === 0 ? 1 : capWorkers(workersOpt === undefined ? undefined : Math.max(1, workersOpt as number), lines.length).workers;
+    const estimateS = estimateSweepSeconds(job, threads);
+    if (estimateS > LONG_JOB_S && !args.options.yes) {
+      io.err(`lines: this sweep would take about ${(estimateS / 3600).toFixed(1)} hours on ${threads} thread(s) (${lines.length} lines); run again with --yes to start it, or narrow the ranges or the path`);
+      return EXIT_BAD_INPUT;
+    }
     const t0 = Date.now();
     const result = await runLinesParallel(
-      { vehicle: s.vehicle, terrain: s.terrain, options: { friction: s.friction, tilt: s.tilt.angleRad !== 0 ? s.tilt : undefined }, lines },
+      job,
       {
+        onNote: (note) => io.err(`lines: ${note}`),
         workers: workersOpt === undefined ? undefined : Math.max(1, workersOpt as number),
         inProcess: workersOpt === 0,
         onProgress: progressReporter(io, 'lines', !args.options.quiet),

@@ -42,11 +42,16 @@ export interface LevelCg {
 /** Total mass and CG position in plan from four level corner readings. */
 export function cgFromLevelReadings(r: LevelReadings): LevelCg {
   const [fl, fr, rl, rr] = r.cornersN;
+  for (const c of r.cornersN) {
+    if (!(Number.isFinite(c) && c >= 0)) throw new Error(`cornersN must be finite and ≥ 0 N, got ${c}`);
+  }
+  if (r.trackFrontM !== undefined && !(r.trackFrontM > 0 && Number.isFinite(r.trackFrontM))) throw new Error(`trackFrontM must be finite and > 0, got ${r.trackFrontM}`);
+  if (r.trackRearM !== undefined && !(r.trackRearM > 0 && Number.isFinite(r.trackRearM))) throw new Error(`trackRearM must be finite and > 0, got ${r.trackRearM}`);
   const front = fl + fr;
   const rear = rl + rr;
   const W = front + rear;
-  if (!(W > 0)) throw new Error(`cornersN must add up to > 0 N, got ${W}`);
-  if (!(r.wheelbaseM > 0)) throw new Error(`wheelbaseM must be > 0, got ${r.wheelbaseM}`);
+  if (!(W > 0 && Number.isFinite(W))) throw new Error(`cornersN must add up to a finite total > 0 N, got ${W}`);
+  if (!(r.wheelbaseM > 0 && Number.isFinite(r.wheelbaseM))) throw new Error(`wheelbaseM must be > 0, got ${r.wheelbaseM}`);
   let left: number | null = null;
   if (r.trackFrontM !== undefined && r.trackRearM !== undefined) {
     left = ((fl - fr) * (r.trackFrontM / 2) + (rl - rr) * (r.trackRearM / 2)) / W;
@@ -92,13 +97,22 @@ export function cgHeightFromAxleLift(r: AxleLiftReadings): AxleLiftCg {
   const L = r.wheelbaseM;
   if (!(L > 0)) throw new Error(`wheelbaseM must be > 0, got ${L}`);
   if (!(r.raiseM > 0 && r.raiseM < L)) throw new Error(`raiseM must be > 0 and < the wheelbase (${L} m), got ${r.raiseM}`);
-  if (!(r.weightN > 0)) throw new Error(`weightN must be > 0, got ${r.weightN}`);
+  if (!(r.weightN > 0 && Number.isFinite(r.weightN))) throw new Error(`weightN must be finite and > 0, got ${r.weightN}`);
+  // What one axle carries lies between nothing and the whole weight, before and after the raise.
+  for (const [k, v] of [['levelStayingAxleN', r.levelStayingAxleN], ['raisedStayingAxleN', r.raisedStayingAxleN]] as const) {
+    if (!(Number.isFinite(v) && v >= 0 && v <= r.weightN)) throw new Error(`${k} must be between 0 and the weight (${r.weightN} N), got ${v}`);
+  }
+  if (!(r.loadedRadiusM > 0 && Number.isFinite(r.loadedRadiusM))) throw new Error(`loadedRadiusM must be finite and > 0, got ${r.loadedRadiusM}`);
   const sinT = r.raiseM / L;
   const theta = Math.asin(sinT);
   const tanT = Math.tan(theta);
   const dW = r.raisedStayingAxleN - r.levelStayingAxleN;
   const per = L / (r.weightN * tanT);
   const h = r.loadedRadiusM + dW * per;
+  // A CG below the ground cannot stand on its wheels: the readings or the raise are wrong.
+  if (!(h > 0 && Number.isFinite(h))) {
+    throw new Error(`the readings give a CG height of ${h.toPrecision(3)} m (below the ground): check the raised readings, the raise and which axle was raised`);
+  }
   const warnings: string[] = [];
   const deg = (theta * 180) / Math.PI;
   if (theta < MIN_RAISE_ANGLE_RAD) {
