@@ -68,7 +68,12 @@ export function formatTable(columns: readonly TableColumn[], rows: readonly (rea
     const first = rows.find((r) => r[j] !== null && r[j] !== undefined);
     return first && typeof first[j] === 'number' ? 'right' : 'left';
   });
-  const widths = columns.map((_, j) => Math.max(textWidth(headers[j]), ...texts.map((t) => textWidth(t[j]))));
+  // Widths in one pass (no spread of a large row list into Math.max).
+  const widths = columns.map((_, j) => {
+    let w = textWidth(headers[j]);
+    for (const t of texts) w = Math.max(w, textWidth(t[j]));
+    return w;
+  });
   const line = (cells: readonly string[]) => (indent + cells.map((s, j) => pad(s, widths[j], aligns[j])).join(gap)).trimEnd();
   return [line(headers), line(widths.map((w) => '-'.repeat(w))), ...texts.map(line)].join('\n');
 }
@@ -77,7 +82,8 @@ export function formatTable(columns: readonly TableColumn[], rows: readonly (rea
 export function formatKeyValues(pairs: readonly (readonly [label: string, value: string])[], options: TableOptions = {}): string {
   const indent = options.indent ?? '';
   const gap = ' '.repeat(options.gap ?? 2);
-  const w = Math.max(0, ...pairs.map((p) => textWidth(p[0])));
+  let w = 0;
+  for (const p of pairs) w = Math.max(w, textWidth(p[0]));
   return pairs.map(([k, v]) => `${indent}${pad(k, w, 'left')}${gap}${v}`.trimEnd()).join('\n');
 }
 

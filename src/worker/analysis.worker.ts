@@ -8,22 +8,21 @@ import {
   MAX_BUILDS,
   applyBuild,
   buildModel,
-  collectReport,
   compareVehicles,
   makeLines,
   passOptionsOf,
   rankLines,
-  renderReportHtml,
   runLineSweepJob,
   runPass,
   stabilityRose,
   type AppliedBuild,
 } from '../core';
+import { collectReport, renderReportHtml } from '../report';
+import { RAD_PER_DEG } from '../present/units';
 import type { WorkerReply, WorkerRequest } from './messages';
 import { runPassWithSolves } from './passReplay';
 
 const post = (m: WorkerReply): void => (self as unknown as DedicatedWorkerGlobalScope).postMessage(m);
-const RAD_PER_DEG = Math.PI / 180;
 
 function handle(req: WorkerRequest): void {
   const t0 = performance.now();
@@ -69,6 +68,7 @@ function handle(req: WorkerRequest): void {
       const html = renderReportHtml(data, {
         toolVersion: req.toolVersion,
         dateText: req.dateText,
+        ...(req.units ? { units: req.units } : {}),
         ...(req.sceneImageDataUrl ? { sceneImageDataUrl: req.sceneImageDataUrl } : {}),
       });
       post({ type: 'report', id: req.id, html, wallMs: performance.now() - t0 });

@@ -9,7 +9,8 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { runCli } from '../../src/cli/main';
 import type { CliIO } from '../../src/cli/command';
-import { FEATURE_TYPES, parseScenarioText, REPORT_CAUTIONS, esc } from '../../src/core/index';
+import { FEATURE_TYPES, parseScenarioText } from '../../src/core/index';
+import { REPORT_CAUTIONS, esc } from '../../src/report/index';
 
 const DIR = join(__dirname, '..', '..', 'assets', 'scenarios');
 const DEMOS = readdirSync(DIR).filter((f) => f.endsWith('.json')).sort();

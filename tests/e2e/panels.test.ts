@@ -11,16 +11,15 @@ import type { Browser, BrowserContext, Page } from 'playwright-core';
 import ledge from '../../assets/scenarios/ledge-crawler.json';
 import demo from '../../assets/scenarios/side-hill-stock.json';
 import {
-  REPORT_CAUTIONS,
   STANDARD_GRAVITY_M_PER_S2,
   buildModel,
   cgFromLevelReadings,
   cgHeightFromAxleLift,
-  esc,
   parseScenario,
   passOptionsOf,
   type Scenario,
 } from '../../src/core';
+import { REPORT_CAUTIONS, esc } from '../../src/report';
 import { runPassWithSolves } from '../../src/worker/passReplay';
 import { isHarmless, launchChromium, waitForScene } from './browser';
 

@@ -10,15 +10,18 @@
  *   tolerance is given.
  * Pure and deterministic; takes a few seconds for a rose and a pass.
  */
-import type { Pose, SolveResult, TiltSweepResult } from '../model/types';
-import type { Scenario } from '../scenario/types';
-import { RAD_PER_DEG } from '../scenario/units';
-import { buildModel, solveEquilibrium } from '../solver/equilibrium';
-import { tiltSweep } from '../solver/tilt';
-import { TerrainField } from '../terrain/field';
-import { runPass, type PassResult, type PassStation } from '../analysis/pass';
-import { stabilityRose, type CardinalName, type RoseResult } from '../analysis/rose';
-import { MAX_BUILDS, applyBuild, cgBand, compareVehicles, staticStabilityFactor, totalCgHeightM, type AppliedBuild, type BuildRow, type BuildSpec, type CgBand } from '../analysis/builds';
+import type { Pose, SolveResult, TiltSweepResult } from '../core/model/types';
+import type { Scenario } from '../core/scenario/types';
+import { RAD_PER_DEG } from '../present/units';
+import { buildModel, solveEquilibrium } from '../core/solver/equilibrium';
+import { tiltSweep } from '../core/solver/tilt';
+import { TerrainField } from '../core/terrain/field';
+import { runPass, type PassResult, type PassStation } from '../core/analysis/pass';
+import { passOptionsOf } from '../core/analysis/passOptions';
+
+export { passOptionsOf };
+import { stabilityRose, type CardinalName, type RoseResult } from '../core/analysis/rose';
+import { MAX_BUILDS, applyBuild, cgBand, compareVehicles, staticStabilityFactor, totalCgHeightM, type AppliedBuild, type BuildRow, type BuildSpec, type CgBand } from '../core/analysis/builds';
 
 /** The four tilt-table directions of the report, in degrees as the CLI's --downhill words give them. */
 export const REPORT_TILTS: readonly { readonly name: CardinalName; readonly label: string; readonly word: string; readonly downhillDeg: number }[] = [
@@ -53,7 +56,7 @@ export interface ReportTilt {
 export interface ReportDrawingPose {
   readonly pose: Pose;
   readonly result: SolveResult;
-  /** Why this pose: "scenario pose" or the pass station and what happens there. */
+  /** Why this pose: "the scenario pose", or what happens at the pass station (station says which). */
   readonly why: string;
   readonly station: PassStation | null;
 }
@@ -74,10 +77,6 @@ export interface ReportData {
   readonly cgBand: CgBand | null;
 }
 
-/** Options of the pass as the `pass` command runs it: the scenario's friction and (when set) its tilt. */
-export function passOptionsOf(s: Scenario): { friction: number; tilt?: Scenario['tilt'] } {
-  return s.tilt.angleRad !== 0 ? { friction: s.friction, tilt: s.tilt } : { friction: s.friction };
-}
 
 /**
  * The key station of a pass, the one drawn: the last standing station before a tip; else the
@@ -139,7 +138,7 @@ export function collectReport(s: Scenario, opts: ReportOptions = {}): ReportData
       let r = solveEquilibrium(model, key.pose, { ...o, warmStart: warm.status === 'converged' ? warm.state : null });
       if (r.status !== 'converged') r = solveEquilibrium(model, key.pose, o);
       if (r.status === 'converged') {
-        drawing = { pose: key.pose, result: r, why: `pass station ${key.index} (${key.distanceM.toFixed(2)} m along the path): ${found.why}`, station: key };
+        drawing = { pose: key.pose, result: r, why: found.why, station: key };
       }
     }
   }
