@@ -7,7 +7,7 @@ import { autosave, loadAutosave, scenarioFromHash } from '../store/persist';
 import { createPlumbStore, type PlumbStore } from '../store/store';
 import type { SceneApi } from '../view/sceneContext';
 import { App } from './App';
-import { StoreProvider } from './storeContext';
+import { StoreProvider } from '../store/react';
 import './styles.css';
 
 declare global {

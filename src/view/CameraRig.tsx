@@ -1,7 +1,7 @@
 import { useEffect, useRef } from 'react';
 import { useFrame, useThree } from '@react-three/fiber';
 import * as THREE from 'three';
-import { usePlumbStore } from '../app/storeContext';
+import { usePlumbStore } from '../store/react';
 import { shownPose, shownResult } from '../store/store';
 import { useSceneApi, type ViewPreset } from './sceneContext';
 

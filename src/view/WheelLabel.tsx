@@ -1,5 +1,5 @@
 import { WHEEL_NAMES } from '../core';
-import { usePlumb } from '../app/storeContext';
+import { usePlumb } from '../store/react';
 import { percentText, scaleText } from '../app/format';
 import { shownResult } from '../store/store';
 import { useSceneApi } from './sceneContext';

@@ -18,7 +18,7 @@ import {
 } from '../../core';
 import { MAX_FORM_BUILDS, addBuild, buildFilePath, moveBuild, removeBuild, replaceBuild, setBuildValue, validateBuilds } from '../buildEdit';
 import { errorFor, getIn, type Key } from '../edit';
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { usePlumb, usePlumbStore } from '../../store/react';
 
 /** How a value is shown: SI → display number, back, and the unit. */
 interface Display {

@@ -10,7 +10,7 @@ import {
 } from '../../core';
 import { setIn, validate } from '../edit';
 import { lengthText } from '../format';
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { usePlumb, usePlumbStore } from '../../store/react';
 import { NumberField } from './NumberField';
 
 interface Readings {

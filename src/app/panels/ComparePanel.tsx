@@ -5,7 +5,7 @@ import { runJob } from '../../worker/client';
 import type { ReplyOf } from '../../worker/messages';
 import { DEG_PER_RAD, distanceUnit, distanceValue, fromSILength, lengthUnit } from '../format';
 import { useWorkerJob } from './useWorkerJob';
-import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../storeContext';
+import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../../store/react';
 import { BuildsForm } from './BuildsForm';
 
 type Done = ReplyOf<'compare'> & { readonly for: Scenario };

@@ -3,7 +3,7 @@ import type { LineSummary, Scenario, SweepRange } from '../../core';
 import { runLines, type LineSweepReply } from '../../worker/client';
 import { DEG_PER_RAD, distanceText, fromSILength, lengthUnit } from '../format';
 import { useWorkerJob } from './useWorkerJob';
-import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../storeContext';
+import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../../store/react';
 import { NumberField } from './NumberField';
 
 type Done = LineSweepReply & { readonly for: Scenario };

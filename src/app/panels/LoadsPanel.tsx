@@ -1,7 +1,7 @@
 import { useMemo } from 'react';
 import { STANDARD_GRAVITY_M_PER_S2 } from '../../core';
 import { angleText, forceText, lengthText, percentText, scaleText, travelText } from '../format';
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { usePlumb, usePlumbStore } from '../../store/react';
 import { warningsFor } from '../warnings';
 import { shownResult } from '../../store/store';
 import { viridisCss } from '../../view/colormap';

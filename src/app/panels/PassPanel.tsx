@@ -6,7 +6,7 @@ import { WHEEL_COLOURS, WHEEL_DASHES } from '../../view/colormap';
 import { DEG_PER_RAD, distanceText, distanceUnit, distanceValue, forceUnit, forceValue, fromSILength, lengthUnit } from '../format';
 import { eventWords, passHeadline } from '../passWords';
 import { useWorkerJob } from './useWorkerJob';
-import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../storeContext';
+import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../../store/react';
 import { DistanceChart, type DistanceMark } from './DistanceChart';
 
 type Done = ReplyOf<'pass'> & { readonly for: Scenario };

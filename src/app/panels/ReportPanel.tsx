@@ -2,7 +2,7 @@ import { useEffect, useRef, useState } from 'react';
 import { version } from '../../../package.json';
 import { runJob, type Job } from '../../worker/client';
 import type { ReplyOf } from '../../worker/messages';
-import { usePlumbStore } from '../storeContext';
+import { usePlumbStore } from '../../store/react';
 
 /** The picture of the 3D view for the report: JPEG keeps a 1280×720 view near 100 kB. */
 function sceneImage(): string | null {

@@ -3,7 +3,7 @@ import type { RoseResult } from '../../core';
 import { runRose } from '../../worker/client';
 import { DEG_PER_RAD, angleText, downhillWords } from '../format';
 import { useWorkerJob } from './useWorkerJob';
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { usePlumb, usePlumbStore } from '../../store/react';
 
 interface Done {
   result: RoseResult;

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import type { Scenario } from '../../core';
 import { errorFor, getIn, setIn, validate, type FieldSpec } from '../edit';
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { usePlumb, usePlumbStore } from '../../store/react';
 import { NumberField } from './NumberField';
 
 export interface SpecFieldProps {

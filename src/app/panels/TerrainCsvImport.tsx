@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { parseScenario, scenarioToFile, type Scenario, type ScenarioError } from '../../core';
 import { csvPlace, gridFromCsv, profileFromCsv, type CsvError } from '../../core/scenario/csv';
 import { fieldUnit } from '../format';
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { usePlumb, usePlumbStore } from '../../store/react';
 import { NumberField } from './NumberField';
 
 type Kind = 'profile-x' | 'profile-y' | 'grid';

@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { angleText, downhillWords } from '../format';
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { usePlumb, usePlumbStore } from '../../store/react';
 import { NumberField } from './NumberField';
 import { SweepChart } from './SweepChart';
 

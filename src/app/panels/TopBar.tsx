@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { scenarioToFile, type UnitSystem } from '../../core';
 import { shareHash } from '../../store/persist';
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { usePlumb, usePlumbStore } from '../../store/react';
 
 /** Title, units, undo/redo and the scenario file: import, export, share link. */
 export function TopBar() {

@@ -1,6 +1,6 @@
 import type { AxleSuspension, PayloadItem, Scenario } from '../../core';
 import { setIn, validate, type FieldSpec } from '../edit';
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { usePlumb, usePlumbStore } from '../../store/react';
 import { SpecField } from './SpecField';
 
 const f = (label: string, si: (string | number)[], file: string, kind: FieldSpec['kind']): FieldSpec => ({ label, si: ['vehicle', ...si], file: `vehicle.${file}`, kind });
