@@ -9,3 +9,4 @@ export * from './metrics';
 export * from './scale';
 export * from './palette';
 export * from './text';
+export * from './fields';
