@@ -159,7 +159,7 @@ export function quantityText(kind: DisplayKind, si: number | null | undefined, u
 export function changeText(kind: DisplayKind, si: number | null | undefined, units: UnitSystem, withUnit = true): string {
   const t = withUnit ? quantityText(kind, si, units) : valueText(kind, si, units);
   if (t === NO_VALUE) return t;
-  if (/^-?0(\.0*)?(\D|$)/.test(t)) return t.replace(/^-/, '');
+  if (/^-?0(?:\.0+)?(?![.\d])/.test(t)) return t.replace(/^-/, '');
   return t.startsWith('-') ? t : `+${t}`;
 }
 

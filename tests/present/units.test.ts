@@ -75,5 +75,7 @@ describe('display units', () => {
     expect(changeText('angle', (1.24 * Math.PI) / 180, 'metric')).toBe('+1.2°');
     expect(changeText('angle', (-0.04 * Math.PI) / 180, 'metric')).toBe('0.0°');
     expect(changeText('short', -0.035, 'metric')).toBe('-35 mm');
+    expect(changeText('ratio', -0.113, 'metric')).toBe('-0.113');
+    expect(changeText('angle', (0.5 * Math.PI) / 180, 'metric', false)).toBe('+0.5');
   });
 });

@@ -1,11 +1,12 @@
 /** `plumbline rose FILE`: tilt-table lift and tip angles for downhill directions all round the vehicle. */
 import { buildModel, stabilityRose, type RoseDirection, type RoseResult } from '../../core/index';
+import { RAD_PER_DEG, angleText } from '../../present/units';
+import { QUASI_STATIC_CAUTION, TILT_DATUM_NOTE } from '../../present/words';
 import { EXIT_BAD_INPUT, EXIT_OK, type CommandSpec } from '../command';
 import { formatKeyValues, formatTable } from '../format';
 import { loadScenarioFile, toJsonText } from '../load';
-import { CAUTION, deg, formatCsv, progressReporter } from '../analysisOutput';
+import { deg, formatCsv, progressReporter } from '../analysisOutput';
 
-const RAD_PER_DEG = Math.PI / 180;
 
 function directionJson(d: RoseDirection): object {
   return {
@@ -87,11 +88,11 @@ export const roseCommand: CommandSpec = {
       io.out(`${s.name}: ${s.vehicle.name}, ${onTerrain ? 'on the scenario terrain' : 'level tilt table'}, every ${stepDeg}°`);
       io.out(
         formatKeyValues([
-          ['weakest direction (tip)', `${directionWords(r.weakest.downhillRad)}: tips at ${r.weakest.tip ? `${deg(r.weakest.tip.angleRad, 1)}°` : `> ${deg(r.maxAngleRad, 0)}°`}`],
+          ['weakest direction (tip)', `${directionWords(r.weakest.downhillRad)}: tips at ${r.weakest.tip ? `${angleText(r.weakest.tip.angleRad)} from level` : `> ${deg(r.maxAngleRad, 0)}°`}`],
           [
             'earliest wheel lift',
             r.weakestLift.firstLift
-              ? `${r.weakestLift.firstLift.wheel} at ${deg(r.weakestLift.firstLift.angleRad, 1)}°, ${directionWords(r.weakestLift.downhillRad)}`
+              ? `${r.weakestLift.firstLift.wheel} at ${angleText(r.weakestLift.firstLift.angleRad)} from level, ${directionWords(r.weakestLift.downhillRad)}`
               : 'none before the tip',
           ],
         ]),
@@ -102,10 +103,10 @@ export const roseCommand: CommandSpec = {
           [
             { header: 'downhill', unit: '°', digits: 1 },
             { header: 'lifts' },
-            { header: 'lift', unit: '°', digits: 2 },
-            { header: 'tip', unit: '°', digits: 2 },
+            { header: 'lift', unit: '°', digits: 1 },
+            { header: 'tip', unit: '°', digits: 1 },
             { header: 'over' },
-            { header: 'slides', unit: '°', digits: 2 },
+            { header: 'slides', unit: '°', digits: 1 },
           ],
           r.directions.map((d) => [
             deg(d.downhillRad),
@@ -117,8 +118,9 @@ export const roseCommand: CommandSpec = {
           ]),
         ),
       );
+      io.out(TILT_DATUM_NOTE);
       io.out('');
-      io.out(CAUTION);
+      io.out(QUASI_STATIC_CAUTION);
     }
     return EXIT_OK;
   },
