@@ -6,7 +6,8 @@
  */
 import type { SolveResult, SolveStatus } from '../core/model/types';
 import type { PassEvent, PassResult } from '../core/analysis/pass';
-import { angleText, distanceText, percentText, shortText, type UnitSystem, DEG_PER_RAD, fixed } from './units';
+import type { BuildChange } from '../core/analysis/builds';
+import { DEG_PER_RAD, angleText, changeText, distanceText, fixed, lengthText, massText, percentText, quantityText, shortText, toDisplay, type UnitSystem } from './units';
 
 /** Slope printed as the maximum in operator manuals of ride-on mowers, utility vehicles and ATVs
  *  (10° when towing): common practice, no single published source (REFERENCES "Limits"). */
@@ -168,4 +169,42 @@ export function warningsFor(r: Pick<SolveResult, 'status' | 'reason' | 'margins'
     else if (w.travelFraction >= 0.999) out.push({ level: 'note', text: `${w.name} is on its bump stop.` });
   }
   return out;
+}
+
+/** One modification as modelled, in words and the reader's units. */
+export function buildChangeWords(c: BuildChange, units: UnitSystem): string {
+  const mm = (m: number) => shortText(m, units);
+  const signed = (m: number) => changeText('short', m, units);
+  switch (c.kind) {
+    case 'as-given':
+      return 'as given';
+    case 'tyres':
+      return `tyres: radius ${lengthText(c.radiusM, units)}; everything rides ${mm(c.riseM)} higher (CG, payload, body, roll centres)`;
+    case 'suspension-lift':
+      return `suspension lift ${mm(c.liftM)}: sprung mass (${massText(c.sprungMassKg, units)} of ${massText(c.massKg, units)}), payload and body up ${mm(c.liftM)}; CG up ${mm(c.cgRiseM)}; roll centres and travel kept`;
+    case 'body-lift':
+      return `body lift ${mm(c.liftM)}: body taken as ${percentText(c.bodyShare)} of the sprung mass (${massText(c.bodyMassKg, units)}) and the payload up ${mm(c.liftM)}; frame, belly and bumpers stay; CG up ${mm(c.cgRiseM)}`;
+    case 'wheels': {
+      const parts: string[] = [];
+      if (c.rimWidthM !== null) {
+        // Rim widths are stated in inches by the trade, whatever the system (common practice).
+        parts.push(`wheels ${fixed(toDisplay('length', c.rimWidthM, 'imperial'), 1)} in wide at ${mm(c.offsetM ?? 0)} offset${c.stockOffsetM === null ? '' : ` (stock ${mm(c.stockOffsetM)})`}`);
+      }
+      if (c.spacerM !== null) parts.push(`spacers ${mm(c.spacerM)} per side`);
+      return `${parts.join(', ')}: ${c.axle === 'both' ? 'both tracks' : `${c.axle} track`} ${signed(c.trackChangeM)}`;
+    }
+    case 'payload':
+      return `payload: ${c.labels.join(', ')} (${massText(c.massKg, units)})`;
+    case 'anti-roll':
+      return `${c.end} anti-roll bar ${c.stiffnessNmPerRad === null ? 'disconnected' : quantityText('rollStiffness', c.stiffnessNmPerRad, units)}`;
+    case 'travel':
+      return `${c.end} travel: bump ${mm(c.bumpM)}, droop ${mm(c.droopM)}`;
+    default:
+      return String((c as { kind: string }).kind);
+  }
+}
+
+/** All of a build's modifications in words, joined. */
+export function buildChangesWords(changes: readonly BuildChange[], units: UnitSystem, sep = '; '): string {
+  return changes.map((c) => buildChangeWords(c, units)).join(sep);
 }

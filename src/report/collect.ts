@@ -21,7 +21,7 @@ import { passOptionsOf } from '../core/analysis/passOptions';
 
 export { passOptionsOf };
 import { stabilityRose, type CardinalName, type RoseResult } from '../core/analysis/rose';
-import { MAX_BUILDS, applyBuild, cgBand, compareVehicles, staticStabilityFactor, totalCgHeightM, type AppliedBuild, type BuildRow, type BuildSpec, type CgBand } from '../core/analysis/builds';
+import { AS_GIVEN, MAX_BUILDS, applyBuild, cgBand, compareVehicles, staticStabilityFactor, totalCgHeightM, type AppliedBuild, type BuildRow, type BuildSpec, type CgBand } from '../core/analysis/builds';
 
 /** The four tilt-table directions of the report, in degrees as the CLI's --downhill words give them. */
 export const REPORT_TILTS: readonly { readonly name: CardinalName; readonly label: string; readonly word: string; readonly downhillDeg: number }[] = [
@@ -147,7 +147,7 @@ export function collectReport(s: Scenario, opts: ReportOptions = {}): ReportData
     stage('builds');
     // As the compare command: the vehicle as given first (the reference), then each build.
     const applied: AppliedBuild[] = [
-      { name: 'as given', vehicle: s.vehicle, changes: ['as given'] },
+      { name: 'as given', vehicle: s.vehicle, changes: AS_GIVEN },
       ...opts.builds.slice(0, MAX_BUILDS - 1).map((b) => applyBuild(s.vehicle, b)),
     ];
     builds = compareVehicles(applied, {

@@ -21,6 +21,7 @@ import {
   TILT_DATUM_NOTE,
   WHEEL_STYLES,
   angleText,
+  buildChangesWords,
   directionText,
   esc,
   eventWhat,
@@ -246,7 +247,7 @@ function scenarioSection(d: ReportData, u: U): string {
   );
   if (d.builds) {
     out.push('<h3>Build options</h3>');
-    out.push(table(['build', 'modifications as modelled'], d.builds.map((r) => [r.name, r.changes.join('; ')])));
+    out.push(table(['build', 'modifications as modelled'], d.builds.map((r) => [r.name, buildChangesWords(r.changes, u)])));
   }
   out.push('<h3>Terrain</h3>');
   out.push(

@@ -5,6 +5,7 @@
  * terminates this worker.
  */
 import {
+  AS_GIVEN,
   MAX_BUILDS,
   applyBuild,
   buildModel,
@@ -47,7 +48,7 @@ function handle(req: WorkerRequest): void {
       // As the compare command with one file: the vehicle as given first, then each build.
       const builds = s.builds ?? [];
       if (builds.length === 0) throw new Error('the scenario has no builds');
-      const applied: AppliedBuild[] = [{ name: 'as given', vehicle: s.vehicle, changes: ['as given'] }, ...builds.slice(0, MAX_BUILDS - 1).map((b) => applyBuild(s.vehicle, b))];
+      const applied: AppliedBuild[] = [{ name: 'as given', vehicle: s.vehicle, changes: AS_GIVEN }, ...builds.slice(0, MAX_BUILDS - 1).map((b) => applyBuild(s.vehicle, b))];
       const rows = compareVehicles(applied, {
         terrain: s.terrain,
         path: s.path,

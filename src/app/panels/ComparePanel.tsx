@@ -4,7 +4,7 @@ import buildsDemo from '../../../assets/scenarios/side-hill-builds.json';
 import { runJob } from '../../worker/client';
 import type { ReplyOf } from '../../worker/messages';
 import { BUILD_METRICS, METRICS_NOTE, changeSense, metricUnit, metricValue } from '../../present/metrics';
-import { QUASI_STATIC_CAUTION } from '../../present/words';
+import { QUASI_STATIC_CAUTION, buildChangesWords } from '../../present/words';
 import { useWorkerJob } from './useWorkerJob';
 import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../../store/react';
 import { BuildsForm } from './BuildsForm';
@@ -92,7 +92,7 @@ export function ComparePanel() {
                   <tr>
                     <th scope="col">Quantity</th>
                     {rows.map((r, i) => (
-                      <th key={r.name} scope="col" title={r.changes.join('\n')} data-testid={`compare-build-${i}`}>
+                      <th key={r.name} scope="col" title={buildChangesWords(r.changes, units, '\n')} data-testid={`compare-build-${i}`}>
                         [{i + 1}] {r.name}
                         {i === 0 ? <small> (reference)</small> : null}
                       </th>
@@ -176,7 +176,7 @@ export function ComparePanel() {
             <ul className="changes">
               {rows.slice(1).map((r: BuildRow) => (
                 <li key={r.name}>
-                  <b>{r.name}</b>: {r.changes.join('; ')}
+                  <b>{r.name}</b>: {buildChangesWords(r.changes, units)}
                 </li>
               ))}
             </ul>

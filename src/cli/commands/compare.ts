@@ -1,5 +1,6 @@
 /** `plumbline compare FILE...`: builds side by side (one file's builds, or one vehicle per file). */
 import {
+  AS_GIVEN,
   MAX_BUILDS,
   applyBuild,
   compareVehicles,
@@ -15,7 +16,7 @@ import { loadScenarioFile, toJsonText } from '../load';
 import { deg, formatCsv, progressReporter, round } from '../analysisOutput';
 import { BUILD_METRICS, METRICS_NOTE, metricJsonKey, metricUnit, metricValue } from '../../present/metrics';
 import { RAD_PER_DEG, angleText, lengthText, valueText } from '../../present/units';
-import { QUASI_STATIC_CAUTION } from '../../present/words';
+import { QUASI_STATIC_CAUTION, buildChangeWords } from '../../present/words';
 
 /** JSON value of one metric: degrees for angles, metres for lengths; key carries the unit. */
 const jsonKey = metricJsonKey;
@@ -27,7 +28,8 @@ export function compareJson(rows: readonly BuildRow[]): object {
   return {
     builds: rows.map((r) => ({
       name: r.name,
-      changes: r.changes,
+      // Words in the file's metric form (SI numbers are in the table); the human table uses --units.
+      changes: r.changes.map((c) => buildChangeWords(c, 'metric')),
       values: Object.fromEntries(BUILD_METRICS.map(({ key: k }) => [jsonKey(k), jsonValue(k, r.metrics[k])])),
       changeFromFirst: Object.fromEntries(BUILD_METRICS.map(({ key: k }) => [jsonKey(k), jsonValue(k, r.change[k])])),
       passFirstUnloadWheel: r.passFirstUnloadWheel,
@@ -78,7 +80,7 @@ export const compareCommand: CommandSpec = {
     if (scenarios.length === 1) {
       const builds = first.builds ?? [];
       applied = [
-        ...(args.options['no-base'] ? [] : [{ name: 'as given', vehicle: first.vehicle, changes: ['as given'] }]),
+        ...(args.options['no-base'] ? [] : [{ name: 'as given', vehicle: first.vehicle, changes: AS_GIVEN }]),
         ...builds.map((b) => applyBuild(first.vehicle, b)),
       ];
       if (applied.length === 0) {
@@ -86,7 +88,7 @@ export const compareCommand: CommandSpec = {
         return EXIT_BAD_INPUT;
       }
     } else {
-      applied = scenarios.map((s, i) => ({ name: `${args.positionals[i]}: ${s.vehicle.name}`, vehicle: s.vehicle, changes: ['as given'] }));
+      applied = scenarios.map((s, i) => ({ name: `${args.positionals[i]}: ${s.vehicle.name}`, vehicle: s.vehicle, changes: AS_GIVEN }));
     }
     if (applied.length > MAX_BUILDS) {
       io.err(`compare: at most ${MAX_BUILDS} columns, got ${applied.length}${scenarios.length === 1 && !args.options['no-base'] ? ' (the vehicle as given counts; --no-base leaves it out)' : ''}`);
@@ -140,7 +142,7 @@ export const compareCommand: CommandSpec = {
     io.out('');
     rows.forEach((r, i) => {
       io.out(`[${i + 1}] ${r.name}`);
-      for (const c of r.changes) io.out(`    ${c}`);
+      for (const c of r.changes) io.out(`    ${buildChangeWords(c, u)}`);
       if (r.band) {
         const b = r.band.directions;
         const span = (x: readonly [number, number]) => `${valueText('angle', x[0], u)}–${angleText(x[1])}`;

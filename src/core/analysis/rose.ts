@@ -9,8 +9,8 @@
 import type { Pose, TiltSweepResult, WheelName } from '../model/types';
 import { tiltSweep } from '../solver/tilt';
 import type { VehicleModel } from '../solver/model';
+import { RAD_PER_DEG as DEG } from '../scenario/units';
 
-const DEG = Math.PI / 180;
 
 export interface RoseOptions {
   /** Spacing of the downhill directions (rad). @default 5° */

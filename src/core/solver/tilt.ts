@@ -9,8 +9,8 @@ import type { Pose, SolveResult, TiltSample, TiltSweepOptions, TiltSweepResult, 
 import { WHEEL_NAMES } from '../model/types';
 import { DEFAULT_FRICTION, solveEquilibrium } from './equilibrium';
 import type { VehicleModel } from './model';
+import { RAD_PER_DEG as DEG } from '../scenario/units';
 
-const DEG = Math.PI / 180;
 /** Warm-started sweep steps converge in a few iterations where an equilibrium exists; more means none is near. */
 const SWEEP_MAX_ITERATIONS = 8;
 /** Brackets narrower than this are searched with the quick iteration only (rad, 0.25°). */
