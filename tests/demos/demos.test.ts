@@ -11,6 +11,7 @@ import { runCli } from '../../src/cli/main';
 import type { CliIO } from '../../src/cli/command';
 import { FEATURE_TYPES, parseScenarioText } from '../../src/core/index';
 import { REPORT_CAUTIONS, esc } from '../../src/report/index';
+import { RAD_PER_DEG, angleText, distanceText } from '../../src/present/units';
 
 const DIR = join(__dirname, '..', '..', 'assets', 'scenarios');
 const DEMOS = readdirSync(DIR).filter((f) => f.endsWith('.json')).sort();
@@ -87,18 +88,21 @@ describe.each(DEMOS)('demo %s', (name) => {
     const r = await cli('report', file, '--date', '2031-04-05');
     expect(r.code, r.err).toBe(0);
     const html = r.out;
+    // The same numbers as the --json output, rounded as the reader sees them (src/present: angles
+    // 0.1°, distances along the path in the file's units).
+    const deg1 = (d: number) => angleText(d * RAD_PER_DEG);
+    const at = (m: number) => distanceText(m, 'metric');
     for (const t of tilts) {
-      // Same numbers as `tilt --json` (degrees to 4 decimals, as JavaScript writes them).
-      if (t.firstLift) expect(html).toContain(`${t.firstLift.wheel} at ${t.firstLift.angleDeg}°`);
-      if (t.tip) expect(html).toContain(`${t.tip.angleDeg}° over ${t.tip.edge.join('–')}`);
+      if (t.firstLift) expect(html).toContain(`${t.firstLift.wheel} at ${deg1(t.firstLift.angleDeg)}`);
+      if (t.tip) expect(html).toContain(`${deg1(t.tip.angleDeg)} over ${t.tip.edge.join('–')}`);
     }
     // `rose --json` (level tilt table, every 5°).
-    if (rose.weakest.tip) expect(html).toContain(`tips at ${rose.weakest.tip.angleDeg}° with downhill ${rose.weakest.downhillDeg}°`);
+    if (rose.weakest.tip) expect(html).toContain(`tips at ${deg1(rose.weakest.tip.angleDeg)} from level with downhill ${Math.round(rose.weakest.downhillDeg)}°`);
     // `pass --json`.
-    if (pass.firstLift) expect(html).toContain(`${pass.firstLift.wheel} at ${pass.firstLift.distanceM} m`);
-    if (pass.firstUnload) expect(html).toContain(`${pass.firstUnload.wheel} at ${pass.firstUnload.distanceM} m`);
-    if (pass.minMargin) expect(html).toContain(`${pass.minMargin.forceAngleDeg}° at ${pass.minMargin.distanceM} m`);
-    if (pass.tip) expect(html).toContain(`at ${pass.tip.distanceM} m`);
+    if (pass.firstLift) expect(html).toContain(`${pass.firstLift.wheel} at ${at(pass.firstLift.distanceM)}`);
+    if (pass.firstUnload) expect(html).toContain(`${pass.firstUnload.wheel} at ${at(pass.firstUnload.distanceM)}`);
+    if (pass.minMargin) expect(html).toContain(`${deg1(pass.minMargin.forceAngleDeg)} at ${at(pass.minMargin.distanceM)}`);
+    if (pass.tip) expect(html).toContain(`at ${at(pass.tip.distanceM)}`);
     // The cautions, at the top and at the bottom.
     for (const c of REPORT_CAUTIONS) expect(html.split(esc(c)).length - 1).toBe(2);
     expect(html.indexOf('id="caution-top"')).toBeLessThan(html.indexOf('id="scenario"'));
