@@ -70,17 +70,14 @@ export function passHeadline(r: PassResult, units: UnitSystem): string {
       : `no wheel goes below ${percentText(r.lightShare)} of its static load`,
   );
   if (r.firstLift) parts.push(`${r.firstLift.wheel} lifts at ${distanceText(r.firstLift.distanceM, units)}`);
+  const c = r.minClearance;
+  const hangsUp = c !== null && c.clearanceM <= 0;
   if (r.tip) parts.push(`tips at ${distanceText(r.tip.distanceM, units)}`);
-  else parts.push('stands at every station');
+  // "Stands" only when nothing of the body is in the ground either.
+  else if (!hangsUp) parts.push('stands at every station');
+  if (hangsUp) parts.push(`hangs up: the ${partWords(c.part)} is ${shortText(-c.clearanceM, units)} into the ground at ${distanceText(c.distanceM, units)}`);
   if (r.minMargin) parts.push(`smallest force-angle margin ${angleText(r.minMargin.forceAngleRad)} at ${distanceText(r.minMargin.distanceM, units)}`);
-  if (r.minClearance) {
-    const c = r.minClearance;
-    parts.push(
-      c.clearanceM <= 0
-        ? `the ${partWords(c.part)} touches at ${distanceText(c.distanceM, units)}`
-        : `least underbody gap ${shortText(c.clearanceM, units)} (${partWords(c.part)}) at ${distanceText(c.distanceM, units)}`,
-    );
-  }
+  if (c !== null && !hangsUp) parts.push(`least underbody gap ${shortText(c.clearanceM, units)} (${partWords(c.part)}) at ${distanceText(c.distanceM, units)}`);
   const s = parts.join('; ');
   return `${s.charAt(0).toUpperCase()}${s.slice(1)}.`;
 }

@@ -41,6 +41,19 @@ describe('pass headline', () => {
     expect(passHeadline(r, 'imperial')).toBe('RL unloads first at 10.00 ft; stands at every station; smallest force-angle margin 12.3° at 20.00 ft.');
     expect(passHeadline(r, 'metric')).toContain('RL unloads first at 3.05 m');
   });
+  it('never says "stands" when the body is in the ground', () => {
+    const r = {
+      firstUnload: null,
+      firstLift: null,
+      tip: null,
+      minMargin: null,
+      minClearance: { station: 134, distanceM: 6.7, clearanceM: -0.255, part: 'belly' },
+      lightShare: 0.25,
+    } as unknown as Parameters<typeof passHeadline>[0];
+    const t = passHeadline(r, 'metric');
+    expect(t).not.toMatch(/stands/);
+    expect(t).toContain('hangs up: the belly is 255 mm into the ground at 6.70 m');
+  });
 });
 
 describe('a pose that does not stand', () => {
