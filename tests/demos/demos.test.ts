@@ -89,9 +89,11 @@ describe.each(DEMOS)('demo %s', (name) => {
     expect(r.code, r.err).toBe(0);
     const html = r.out;
     // The same numbers as the --json output, rounded as the reader sees them (src/present: angles
-    // 0.1°, distances along the path in the file's units).
+    // 0.1°, distances along the path in the file's units, the report's default).
     const deg1 = (d: number) => angleText(d * RAD_PER_DEG);
-    const at = (m: number) => distanceText(m, 'metric');
+    const parsed = parseScenarioText(readFileSync(file, 'utf8'));
+    const units = parsed.ok ? parsed.scenario.units : 'metric';
+    const at = (m: number) => distanceText(m, units);
     for (const t of tilts) {
       if (t.firstLift) expect(html).toContain(`${t.firstLift.wheel} at ${deg1(t.firstLift.angleDeg)}`);
       if (t.tip) expect(html).toContain(`${deg1(t.tip.angleDeg)} over ${t.tip.edge.join('–')}`);
