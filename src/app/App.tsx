@@ -12,7 +12,7 @@ import { TerrainPanel } from './panels/TerrainPanel';
 import { VehiclePanel } from './panels/VehiclePanel';
 import { TiltPanel } from './panels/TiltPanel';
 import { TopBar } from './panels/TopBar';
-import { usePlumbStore } from './storeContext';
+import { usePlumbStore } from '../store/react';
 
 // Panels loaded after the first solved scene (their own chunks keep the first load small).
 const loadPass = () => import('./panels/PassPanel');

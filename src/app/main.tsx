@@ -15,7 +15,7 @@ import { session } from '../store/session';
 import { createPlumbStore, type PlumbStore } from '../store/store';
 import type { SceneApi } from '../view/sceneContext';
 import { App } from './App';
-import { StoreProvider } from './storeContext';
+import { StoreProvider } from '../store/react';
 import './styles.css';
 
 declare global {

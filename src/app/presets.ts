@@ -3,8 +3,7 @@
  * Sizes are invented, typical of trail obstacles (common practice), not from any course standard.
  */
 import type { Scenario, TerrainFeature } from '../core';
-
-const DEG = Math.PI / 180;
+import { RAD_PER_DEG as DEG } from '../present/units';
 
 export type PresetName = 'side-hill' | 'ledge-up' | 'ledge-down' | 'rock' | 'twist' | 'ramp';
 

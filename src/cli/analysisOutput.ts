@@ -2,6 +2,8 @@
  * Shared by the analysis commands (pass, rose, lines, compare, cg): CSV text, progress lines on
  * stderr, FROM:TO:STEP ranges, and the cautions printed under every result.
  */
+import { DEG_PER_RAD } from '../present/units';
+import { QUASI_STATIC_CAUTION } from '../present/words';
 import type { CliIO } from './command';
 import { UsageError } from './command';
 
@@ -71,10 +73,9 @@ export function parseNumberList(option: string, text: string, n: number): number
   return nums;
 }
 
-export const CAUTION =
-  'Caution: quasi-static estimates (a slow crawl, no bounce, no driver input). Real margins are smaller; keep to the vehicle maker\'s limits, local regulations and trained practice.';
+export const CAUTION = QUASI_STATIC_CAUTION;
 
-export const DEG_PER_RAD = 180 / Math.PI;
+export { DEG_PER_RAD };
 /** Radians to degrees for output, rounded to `digits` decimals; null stays null. */
 export function deg(rad: number | null | undefined, digits = 3): number | null {
   if (rad === null || rad === undefined || !Number.isFinite(rad)) return null;

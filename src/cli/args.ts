@@ -100,7 +100,7 @@ export function commandHelp(spec: CommandSpec): string {
   if (spec.description) lines.push('', spec.description);
   if (spec.args.length) {
     lines.push('', 'arguments:');
-    const w = Math.max(...spec.args.map((a) => a.name.length));
+    const w = spec.args.reduce((m, a) => Math.max(m, a.name.length), 0);
     for (const a of spec.args) lines.push(`  ${a.name.padEnd(w)}  ${a.description}`);
   }
   const opts = [...spec.options, { name: 'help', short: 'h', kind: 'flag', description: 'show this help' } as OptionSpec];
@@ -108,7 +108,7 @@ export function commandHelp(spec: CommandSpec): string {
     const value = o.kind === 'flag' ? '' : ` ${o.valueName ?? (o.choices ? o.choices.join('|') : 'VALUE')}`;
     return `${o.short ? `-${o.short}, ` : '    '}--${o.name}${value}`;
   });
-  const w = Math.max(...words.map((s) => s.length));
+  const w = words.reduce((m, s) => Math.max(m, s.length), 0);
   lines.push('', 'options:');
   opts.forEach((o, i) => {
     const def = o.default !== undefined && o.kind !== 'flag' ? ` (default ${String(o.default)})` : '';

@@ -1,3 +1,6 @@
+import type { OptionSpec } from './command';
+import { parseUnits, unitSymbol, valueText, DEG_PER_RAD, type DisplayKind, type UnitSystem } from '../present/units';
+
 /**
  * Readable fixed-width text for the terminal: tables with a unit in every numeric column header,
  * and aligned key/value blocks. Degrees and other display units are converted by the caller, at
@@ -24,7 +27,7 @@ export interface TableOptions {
 }
 
 /** Shown for a missing value. */
-export const EMPTY_CELL = '–';
+export const EMPTY_CELL = '—';
 
 /** Display width of a string in a monospace terminal (one column per code point). */
 export function textWidth(s: string): number {
@@ -68,7 +71,12 @@ export function formatTable(columns: readonly TableColumn[], rows: readonly (rea
     const first = rows.find((r) => r[j] !== null && r[j] !== undefined);
     return first && typeof first[j] === 'number' ? 'right' : 'left';
   });
-  const widths = columns.map((_, j) => Math.max(textWidth(headers[j]), ...texts.map((t) => textWidth(t[j]))));
+  // Widths in one pass (no spread of a large row list into Math.max).
+  const widths = columns.map((_, j) => {
+    let w = textWidth(headers[j]);
+    for (const t of texts) w = Math.max(w, textWidth(t[j]));
+    return w;
+  });
   const line = (cells: readonly string[]) => (indent + cells.map((s, j) => pad(s, widths[j], aligns[j])).join(gap)).trimEnd();
   return [line(headers), line(widths.map((w) => '-'.repeat(w))), ...texts.map(line)].join('\n');
 }
@@ -77,11 +85,37 @@ export function formatTable(columns: readonly TableColumn[], rows: readonly (rea
 export function formatKeyValues(pairs: readonly (readonly [label: string, value: string])[], options: TableOptions = {}): string {
   const indent = options.indent ?? '';
   const gap = ' '.repeat(options.gap ?? 2);
-  const w = Math.max(0, ...pairs.map((p) => textWidth(p[0])));
+  let w = 0;
+  for (const p of pairs) w = Math.max(w, textWidth(p[0]));
   return pairs.map(([k, v]) => `${indent}${pad(k, w, 'left')}${gap}${v}`.trimEnd()).join('\n');
 }
 
 /** Radians to degrees, for display only. */
 export function radToDeg(rad: number): number {
-  return (rad * 180) / Math.PI;
+  return rad * DEG_PER_RAD;
+}
+
+/** `--units metric|imperial` for a command's human output (the JSON stays SI). */
+export const UNITS_OPTION: OptionSpec = {
+  name: 'units',
+  kind: 'string',
+  choices: ['metric', 'imperial'],
+  valueName: 'metric|imperial',
+  description: "units of the printed tables (default: the scenario file's; --json stays SI)",
+};
+
+/** The units a command prints in: --units, else the scenario file's. */
+export function outputUnits(options: Readonly<Record<string, unknown>>, fileUnits: UnitSystem): UnitSystem {
+  return parseUnits(typeof options.units === 'string' ? options.units : undefined) ?? fileUnits;
+}
+
+/** A table column of a quantity: header "name (unit)", right-aligned, cells already rounded by src/present. */
+export function quantityColumn(header: string, kind: DisplayKind, units: UnitSystem): TableColumn {
+  const unit = unitSymbol(kind, units);
+  return { header, ...(unit ? { unit } : {}), align: 'right' };
+}
+
+/** One wheel's load cell: rounded for its kind, "—" when the pose gives it none. */
+export function loadCell(kind: DisplayKind, si: number | null | undefined, units: UnitSystem): string {
+  return valueText(kind, si, units);
 }

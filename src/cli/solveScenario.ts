@@ -1,7 +1,6 @@
 /** Shared by the CLI commands: a scenario's model, pose and tilt, and display units. */
 import { buildModel, type Scenario, type VehicleModel } from '../core/index';
-
-const DEG = Math.PI / 180;
+import { DEG_PER_RAD, RAD_PER_DEG as DEG, toDisplay, unitSymbol } from '../present/units';
 
 export function modelOf(s: Scenario): VehicleModel {
   return buildModel(s.vehicle, s.terrain);
@@ -17,11 +16,14 @@ export interface DisplayUnits {
   readonly lengthOf: (m: number) => number;
 }
 
-// 1 lbf = 4.4482216152605 N; 1 in = 0.0254 m (international yard and pound, 1959).
+/** The force and length units of src/present for one unit system (kN or lbf; m or in). */
 export function displayUnits(units: Scenario['units']): DisplayUnits {
-  return units === 'imperial'
-    ? { force: 'lbf', length: 'in', forceOf: (n) => n / 4.4482216152605, lengthOf: (m) => m / 0.0254 }
-    : { force: 'N', length: 'm', forceOf: (n) => n, lengthOf: (m) => m };
+  return {
+    force: unitSymbol('force', units),
+    length: unitSymbol('length', units),
+    forceOf: (n) => toDisplay('force', n, units),
+    lengthOf: (m) => toDisplay('length', m, units),
+  };
 }
 
 /** --downhill value: degrees (0 nose down, 90 left side down, 180 tail down, 270 right side down) or a word. */
@@ -33,4 +35,4 @@ export function parseDownhill(v: string): number | null {
   return Number.isFinite(n) && key !== '' ? n * DEG : null;
 }
 
-export const radToDegRounded = (rad: number, digits = 4): number => Number(((rad * 180) / Math.PI).toFixed(digits));
+export const radToDegRounded = (rad: number, digits = 4): number => Number((rad * DEG_PER_RAD).toFixed(digits));

@@ -8,4 +8,3 @@ export { VehicleModel, GRAVITY_MPS2, STATE_SIZE, rigidStaticLoads, type ModelOpt
 export { stabilityMargins, supportHull } from './solver/margins';
 export { DEFAULT_TYRE_MODEL, makeTyreLayout, calibrateTyre, flatForcePerRate, evaluateTyre, TyreContact } from './tyre/radialSpring';
 export * from './analysis/index';
-export * from './report/index';

@@ -261,7 +261,8 @@ export function createPlumbStore(initial: Scenario, units: UnitSystem = initial.
           return false;
         }
         apply(parsed.scenario, true);
-        set({ importErrors: null, importWarnings: parsed.warnings, sweep: null });
+        // The app shows a file in its own units (the user can switch after).
+        set({ importErrors: null, importWarnings: parsed.warnings, sweep: null, units: parsed.scenario.units });
         return true;
       },
       importText(text, sizeBytes) {

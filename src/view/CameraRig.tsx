@@ -1,8 +1,10 @@
-import { useEffect, useRef } from 'react';
+import { useEffect, useRef, type ComponentRef } from 'react';
 import { useFrame, useThree } from '@react-three/fiber';
+import { OrbitControls } from '@react-three/drei/core/OrbitControls';
 import * as THREE from 'three';
-import { usePlumbStore } from '../app/storeContext';
+import { usePlumbStore } from '../store/react';
 import { shownPose, shownResult } from '../store/store';
+import { RAD_PER_DEG as DEG } from '../present/units';
 import { useSceneApi, type ViewPreset } from './sceneContext';
 
 export interface CameraRigProps {
@@ -12,24 +14,20 @@ export interface CameraRigProps {
   maxDistanceM?: number;
 }
 
-type Mode = 'none' | 'orbit' | 'pan' | 'drag' | 'turn';
-
 const _ray = new THREE.Raycaster();
 const _ndc = new THREE.Vector2();
 const _inv = new THREE.Matrix4();
 const _o = new THREE.Vector3();
 const _dir = new THREE.Vector3();
 const _hit = new THREE.Vector3();
-const _right = new THREE.Vector3();
-const _upv = new THREE.Vector3();
-const _off = new THREE.Vector3();
-const DEG = Math.PI / 180;
 
 /**
- * Pointer input for the scene, written here rather than taken from a controls library so the two
- * uses of a press do not fight: pressing the vehicle body drags the vehicle over the terrain
- * (Shift + drag turns it), pressing anywhere else orbits; right button or Ctrl + drag pans; the
- * wheel zooms. Every move asks for one frame; a vehicle move re-solves (warm-started) at once.
+ * The camera: drei's OrbitControls (three's orbit controls: left drag or one finger orbits, right
+ * drag, Ctrl + drag or two fingers pan, the wheel or a pinch zooms), never below the ground's
+ * horizon. Pressing the vehicle body instead drags the vehicle over the terrain (Shift + drag
+ * turns it): this listener sits on the canvas in the capture phase, so it sees the press before
+ * the controls (on the same element or its parent) and switches them off for that drag. Every
+ * move asks for one frame; a vehicle move re-solves (warm-started) at once.
  */
 export function CameraRig({ distanceM = 10, minDistanceM = 2, maxDistanceM = 80 }: CameraRigProps) {
   const api = useSceneApi();
@@ -38,31 +36,28 @@ export function CameraRig({ distanceM = 10, minDistanceM = 2, maxDistanceM = 80 
   const gl = useThree((s) => s.gl);
   const scene = useThree((s) => s.scene);
   const invalidate = useThree((s) => s.invalidate);
-  const orbit = useRef({ target: new THREE.Vector3(), radius: distanceM, theta: 0, phi: 1.1 });
+  const controls = useRef<ComponentRef<typeof OrbitControls>>(null);
 
   useEffect(() => {
     const el = gl.domElement;
-    const o = orbit.current;
+    const c = controls.current;
+    if (!c) return;
     camera.up.set(0, 0, 1);
     const table = (): THREE.Object3D | undefined => scene.getObjectByName('tilt-table');
 
-    const place = (): void => {
-      const sp = Math.sin(o.phi);
-      camera.position.set(
-        o.target.x + o.radius * sp * Math.cos(o.theta),
-        o.target.y + o.radius * sp * Math.sin(o.theta),
-        o.target.z + o.radius * Math.cos(o.phi),
-      );
-      camera.lookAt(o.target);
-      camera.updateMatrixWorld();
+    /** Camera at (radius, azimuth theta, polar phi from straight up) about the target. */
+    const place = (theta: number, phi: number, radius: number): void => {
+      const sp = Math.sin(phi);
+      camera.position.set(c.target.x + radius * sp * Math.cos(theta), c.target.y + radius * sp * Math.sin(theta), c.target.z + radius * Math.cos(phi));
+      camera.lookAt(c.target);
+      c.update();
       invalidate();
     };
 
     /** The vehicle's reference point, in world (tilted) coordinates. */
     const vehicleTarget = (out: THREE.Vector3): THREE.Vector3 => {
-      const st = store.getState();
-      const c = shownResult(st).body.cgWorld;
-      out.set(c[0], c[1], c[2] * 0.5);
+      const c3 = shownResult(store.getState()).body.cgWorld;
+      out.set(c3[0], c3[1], c3[2] * 0.5);
       const t = table();
       if (t) {
         t.updateMatrixWorld(true);
@@ -72,49 +67,39 @@ export function CameraRig({ distanceM = 10, minDistanceM = 2, maxDistanceM = 80 
     };
 
     api.invalidate = invalidate;
+    api.cameraState = () => ({ position: [camera.position.x, camera.position.y, camera.position.z], target: [c.target.x, c.target.y, c.target.z] });
     api.view = (preset: ViewPreset) => {
       const h = shownPose(store.getState()).headingRad;
-      vehicleTarget(o.target);
+      vehicleTarget(c.target);
       switch (preset) {
         case 'front':
-          o.theta = h;
-          o.phi = 82 * DEG;
-          o.radius = 9;
+          place(h, 82 * DEG, 9);
           break;
         case 'side':
-          o.theta = h + Math.PI / 2;
-          o.phi = 82 * DEG;
-          o.radius = 10;
+          place(h + Math.PI / 2, 82 * DEG, 10);
           break;
         case 'above':
-          o.theta = h - Math.PI / 2;
-          o.phi = 0.5 * DEG;
-          o.radius = 11;
+          place(h - Math.PI / 2, 0.5 * DEG, 11);
           break;
         case 'corner':
-          o.theta = h + 40 * DEG;
-          o.phi = 62 * DEG;
-          o.radius = 9.5;
+          place(h + 40 * DEG, 62 * DEG, Math.min(maxDistanceM, Math.max(minDistanceM, distanceM * 0.95)));
           break;
       }
-      place();
     };
     api.view('corner');
 
-    let mode: Mode = 'none';
-    let lastX = 0;
-    let lastY = 0;
+    let dragging: 'none' | 'drag' | 'turn' = 'none';
     const grab = { planeZ: 0, hitX: 0, hitY: 0, poseX: 0, poseY: 0, angle0: 0, heading0: 0 };
 
     // Follow the vehicle when its shown pose moves other than by a drag (a pass station, a typed
-    // pose): the target moves by the same step, so the view keeps its angle and distance.
+    // pose): target and camera move by the same step, so the view keeps its angle and distance.
     let followed = shownPose(store.getState());
     const unfollow = store.subscribe((st) => {
       const p = shownPose(st);
       if (p === followed) return;
       const prev = followed;
       followed = p;
-      if (mode === 'drag' || mode === 'turn') return;
+      if (dragging !== 'none') return;
       const t = table();
       _o.set(prev.xM, prev.yM, 0);
       _hit.set(p.xM, p.yM, 0);
@@ -123,8 +108,11 @@ export function CameraRig({ distanceM = 10, minDistanceM = 2, maxDistanceM = 80 
         _o.applyMatrix4(t.matrixWorld);
         _hit.applyMatrix4(t.matrixWorld);
       }
-      o.target.add(_hit.sub(_o));
-      place();
+      _hit.sub(_o);
+      c.target.add(_hit);
+      camera.position.add(_hit);
+      c.update();
+      invalidate();
     });
 
     const setRay = (e: PointerEvent): void => {
@@ -149,107 +137,84 @@ export function CameraRig({ distanceM = 10, minDistanceM = 2, maxDistanceM = 80 
     };
 
     const onDown = (e: PointerEvent): void => {
-      lastX = e.clientX;
-      lastY = e.clientY;
-      if (e.button === 0 && !e.ctrlKey && !e.metaKey) {
-        setRay(e);
-        const hits = _ray.intersectObjects(api.grabbable, false);
-        if (hits.length > 0) {
-          const t = table();
-          _inv.identity();
-          if (t) _inv.copy(t.matrixWorld).invert();
-          _hit.copy(hits[0].point).applyMatrix4(_inv);
-          const pose = store.getState().scenario.pose;
-          grab.planeZ = _hit.z;
-          grab.hitX = _hit.x;
-          grab.hitY = _hit.y;
-          grab.poseX = pose.xM;
-          grab.poseY = pose.yM;
-          grab.heading0 = pose.headingRad;
-          grab.angle0 = Math.atan2(_hit.y - pose.yM, _hit.x - pose.xM);
-          mode = e.shiftKey ? 'turn' : 'drag';
-          store.getState().beginDrag();
-          el.setPointerCapture(e.pointerId);
-          el.style.cursor = 'grabbing';
-          return;
-        }
-        mode = 'orbit';
-      } else {
-        mode = 'pan';
-      }
+      if (e.button !== 0 || e.ctrlKey || e.metaKey || !e.isPrimary) return;
+      setRay(e);
+      const hits = _ray.intersectObjects(api.grabbable, false);
+      if (hits.length === 0) return; // the controls orbit
+      const t = table();
+      _inv.identity();
+      if (t) _inv.copy(t.matrixWorld).invert();
+      _hit.copy(hits[0].point).applyMatrix4(_inv);
+      const pose = store.getState().scenario.pose;
+      grab.planeZ = _hit.z;
+      grab.hitX = _hit.x;
+      grab.hitY = _hit.y;
+      grab.poseX = pose.xM;
+      grab.poseY = pose.yM;
+      grab.heading0 = pose.headingRad;
+      grab.angle0 = Math.atan2(_hit.y - pose.yM, _hit.x - pose.xM);
+      dragging = e.shiftKey ? 'turn' : 'drag';
+      // Switched off now, the controls ignore this press.
+      c.enabled = false;
+      store.getState().beginDrag();
       el.setPointerCapture(e.pointerId);
+      el.style.cursor = 'grabbing';
     };
 
     const onMove = (e: PointerEvent): void => {
-      if (mode === 'none') {
-        return;
+      if (dragging === 'none' || !terrainHit(e, grab.planeZ, _hit)) return;
+      const t0 = performance.now();
+      const st = store.getState();
+      if (dragging === 'drag') {
+        st.setPose({ xM: grab.poseX + (_hit.x - grab.hitX), yM: grab.poseY + (_hit.y - grab.hitY) }, false);
+      } else {
+        const a = Math.atan2(_hit.y - grab.poseY, _hit.x - grab.poseX);
+        st.setPose({ headingRad: grab.heading0 + (a - grab.angle0) }, false);
       }
-      const dx = e.clientX - lastX;
-      const dy = e.clientY - lastY;
-      lastX = e.clientX;
-      lastY = e.clientY;
-      if (mode === 'orbit') {
-        o.theta -= dx * 0.008;
-        o.phi = Math.min(89.5 * DEG, Math.max(0.5 * DEG, o.phi - dy * 0.008));
-        place();
-      } else if (mode === 'pan') {
-        const k = (o.radius * 0.0016);
-        _right.setFromMatrixColumn(camera.matrixWorld, 0);
-        _upv.setFromMatrixColumn(camera.matrixWorld, 1);
-        _off.copy(_right).multiplyScalar(-dx * k).addScaledVector(_upv, dy * k);
-        o.target.add(_off);
-        place();
-      } else if (terrainHit(e, grab.planeZ, _hit)) {
-        const t0 = performance.now();
-        const st = store.getState();
-        if (mode === 'drag') {
-          st.setPose({ xM: grab.poseX + (_hit.x - grab.hitX), yM: grab.poseY + (_hit.y - grab.hitY) }, false);
-        } else {
-          const a = Math.atan2(_hit.y - grab.poseY, _hit.x - grab.poseX);
-          st.setPose({ headingRad: grab.heading0 + (a - grab.angle0) }, false);
-        }
-        api.stats.dragEvents++;
-        api.stats.dragMs += performance.now() - t0;
-      }
+      api.stats.dragEvents++;
+      api.stats.dragMs += performance.now() - t0;
     };
 
     const onUp = (e: PointerEvent): void => {
-      if (mode === 'drag' || mode === 'turn') {
-        store.getState().endDrag();
-        el.style.cursor = '';
-      }
-      mode = 'none';
+      if (dragging === 'none') return;
+      store.getState().endDrag();
+      el.style.cursor = '';
+      dragging = 'none';
+      c.enabled = true;
       if (el.hasPointerCapture(e.pointerId)) el.releasePointerCapture(e.pointerId);
-    };
-
-    const onWheel = (e: WheelEvent): void => {
-      e.preventDefault();
-      o.radius = Math.min(maxDistanceM, Math.max(minDistanceM, o.radius * Math.exp(e.deltaY * 0.001)));
-      place();
     };
     const onMenu = (e: Event): void => e.preventDefault();
 
-    el.addEventListener('pointerdown', onDown);
+    // Capture: seen before the controls' own listener, on the canvas or on its parent.
+    el.addEventListener('pointerdown', onDown, { capture: true });
     el.addEventListener('pointermove', onMove);
     el.addEventListener('pointerup', onUp);
     el.addEventListener('pointercancel', onUp);
-    el.addEventListener('wheel', onWheel, { passive: false });
     el.addEventListener('contextmenu', onMenu);
     el.style.touchAction = 'none';
     return () => {
       unfollow();
-      el.removeEventListener('pointerdown', onDown);
+      el.removeEventListener('pointerdown', onDown, { capture: true });
       el.removeEventListener('pointermove', onMove);
       el.removeEventListener('pointerup', onUp);
       el.removeEventListener('pointercancel', onUp);
-      el.removeEventListener('wheel', onWheel);
       el.removeEventListener('contextmenu', onMenu);
     };
-  }, [api, store, camera, gl, scene, invalidate, minDistanceM, maxDistanceM]);
+  }, [api, store, camera, gl, scene, invalidate, distanceM, minDistanceM, maxDistanceM]);
 
   useFrame(() => {
     api.stats.frames++;
     if (api.stats.firstFrameMs === null) api.stats.firstFrameMs = performance.now();
   });
-  return null;
+  return (
+    <OrbitControls
+      ref={controls}
+      enableDamping={false}
+      minDistance={minDistanceM}
+      maxDistance={maxDistanceM}
+      minPolarAngle={0.5 * DEG}
+      maxPolarAngle={89.5 * DEG}
+      zoomSpeed={0.8}
+    />
+  );
 }

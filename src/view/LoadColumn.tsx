@@ -1,6 +1,6 @@
 import { useRef } from 'react';
 import * as THREE from 'three';
-import { usePlumb } from '../app/storeContext';
+import { usePlumb } from '../store/react';
 import { shownResult, shownVehicle } from '../store/store';
 import { alongQuaternion, loadShareColor } from './adapters';
 import { useSolved } from './useSolved';
@@ -48,8 +48,7 @@ export function LoadColumn({ index, heightPerQuarterM = 0.9, radiusM = 0.055 }: 
     shaft.current.scale.set(1, h, 1);
     shaft.current.position.set(0, headM + h / 2, 0);
     head.current.position.set(0, headM / 2, 0);
-    const share = w.staticLoadN > 0 ? (w.verticalLoadN ?? 0) / w.staticLoadN : 0;
-    loadShareColor(share, material.current.color);
+    loadShareColor(w.loadShare, material.current.color);
   });
   return (
     <group ref={group} name={`load-${index}`}>

@@ -1,7 +1,7 @@
 import { useEffect, useMemo } from 'react';
 import * as THREE from 'three';
 import { TerrainField, type PathSpec } from '../core';
-import { usePlumb } from '../app/storeContext';
+import { usePlumb } from '../store/react';
 
 export interface PathLineProps {
   /** Height of the line above the ground (m). */

@@ -79,7 +79,7 @@ export function Scene({ onApi }: SceneProps) {
           ))}
         </div>
         <LoadLegend />
-        <div className="scene-help">Drag the body to move the vehicle, Shift + drag to turn it. Drag elsewhere to orbit, right-drag to pan, wheel to zoom.</div>
+        <div className="scene-help">Drag the body to move the vehicle, Shift + drag to turn it. Drag elsewhere (or one finger) to orbit, right-drag or two fingers to pan, wheel or pinch to zoom.</div>
       </div>
     </SceneContext.Provider>
   );

@@ -1,5 +1,5 @@
 import { useEffect, useMemo } from 'react';
-import { usePlumb } from '../app/storeContext';
+import { usePlumb } from '../store/react';
 import { terrainBuffers, terrainExtent } from './adapters';
 
 export interface TerrainMeshProps {

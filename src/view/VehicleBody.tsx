@@ -1,6 +1,6 @@
 import { useEffect, useMemo, useRef } from 'react';
 import * as THREE from 'three';
-import { usePlumb } from '../app/storeContext';
+import { usePlumb } from '../store/react';
 import { shownModel, shownPose, shownResult, shownVehicle } from '../store/store';
 import { bodyMatrix } from './adapters';
 import { useSceneApi } from './sceneContext';

@@ -1,6 +1,6 @@
 import { useMemo, useRef } from 'react';
 import * as THREE from 'three';
-import { usePlumb } from '../app/storeContext';
+import { usePlumb } from '../store/react';
 import { shownResult, shownVehicle } from '../store/store';
 import { alongQuaternion } from './adapters';
 import { useSceneApi } from './sceneContext';

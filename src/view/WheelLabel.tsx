@@ -1,6 +1,6 @@
 import { WHEEL_NAMES } from '../core';
-import { usePlumb } from '../app/storeContext';
-import { percentText, scaleText } from '../app/format';
+import { usePlumb } from '../store/react';
+import { percentText, scaleText } from '../present/units';
 import { shownResult } from '../store/store';
 import { useSceneApi } from './sceneContext';
 
@@ -18,7 +18,6 @@ export function WheelLabel({ index }: WheelLabelProps) {
   const units = usePlumb((s) => s.units);
   const w = usePlumb((s) => shownResult(s).wheels[index]);
   const name = WHEEL_NAMES[index];
-  const share = w.staticLoadN > 0 ? (w.verticalLoadN ?? 0) / w.staticLoadN : 0;
   return (
     <div
       ref={(el) => {
@@ -29,8 +28,8 @@ export function WheelLabel({ index }: WheelLabelProps) {
       data-lifted={w.lifted ? 'true' : 'false'}
     >
       <b>{name}</b> {w.lifted ? <strong className="lifted-word">LIFTED</strong> : null}{' '}
-      <span className="load-number">{scaleText((w.verticalLoadN ?? 0), units)}</span>{' '}
-      <span className="load-share">{percentText(share)} of static</span>
+      <span className="load-number">{scaleText(w.verticalLoadN, units)}</span>{' '}
+      <span className="load-share">{percentText(w.loadShare)} of static</span>
     </div>
   );
 }

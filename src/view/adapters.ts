@@ -4,7 +4,7 @@
  */
 import * as THREE from 'three';
 import { TerrainField, type Pose, type SolveResult, type Terrain, type Tilt, type VehicleModel } from '../core';
-import { viridisRGB } from './colormap';
+import { LOAD_COLOUR_MAX_SHARE, loadColourRGB } from '../present/palette';
 
 type V3 = readonly [number, number, number];
 
@@ -199,9 +199,11 @@ export function terrainBuffers(terrain: Terrain, ext: TerrainExtent, stepM = 0.0
   return { geometry, grid, zMinM: zMin, zMaxM: zMax };
 }
 
-/** Colour for a load share (load / static load) on the viridis scale over 0…2. */
-export function loadShareColor(share: number, out: THREE.Color): THREE.Color {
-  const [r, g, b] = viridisRGB(Math.min(1, Math.max(0, share / 2)));
+const _rgb: [number, number, number] = [0, 0, 0];
+
+/** Colour for a share of the static load (the one basis: normal load) on the load colour map over 0…2. */
+export function loadShareColor(share: number | null, out: THREE.Color): THREE.Color {
+  const [r, g, b] = loadColourRGB((share ?? 0) / LOAD_COLOUR_MAX_SHARE, _rgb);
   return out.setRGB(r, g, b, THREE.SRGBColorSpace);
 }
 

@@ -18,6 +18,8 @@ export interface SceneApi {
   view: (preset: ViewPreset) => void;
   /** Set by <CameraRig>: ask for one frame. */
   invalidate: () => void;
+  /** Set by <CameraRig>: the camera's position and the point it orbits (world frame), for tests and the benchmark. */
+  cameraState: () => { position: [number, number, number]; target: [number, number, number] } | null;
   /** Frame statistics for the benchmark script (window.__plumbline). */
   readonly stats: { frames: number; dragEvents: number; dragMs: number; firstFrameMs: number | null };
 }
@@ -29,6 +31,7 @@ export function makeSceneApi(): SceneApi {
     labelAnchors: new Float64Array(12),
     view: () => undefined,
     invalidate: () => undefined,
+    cameraState: () => null,
     stats: { frames: 0, dragEvents: 0, dragMs: 0, firstFrameMs: null },
   };
 }

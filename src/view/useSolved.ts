@@ -6,7 +6,7 @@
  */
 import { useLayoutEffect, useRef } from 'react';
 import { useThree } from '@react-three/fiber';
-import { usePlumbStore } from '../app/storeContext';
+import { usePlumbStore } from '../store/react';
 import type { PlumbState } from '../store/store';
 
 export function useSolved(apply: (s: PlumbState) => void): void {

@@ -5,22 +5,23 @@
  * terminates this worker.
  */
 import {
+  AS_GIVEN,
   MAX_BUILDS,
   applyBuild,
   buildModel,
-  collectReport,
   compareVehicles,
   passOptionsOf,
-  renderReportHtml,
+  rankLines,
   runLineSweepJob,
   stabilityRose,
   type AppliedBuild,
 } from '../core';
+import { collectReport, renderReportHtml } from '../report';
+import { RAD_PER_DEG } from '../present/units';
 import type { WorkerReply, WorkerRequest } from './messages';
 import { runPassWithSolves } from './passReplay';
 
 const post = (m: WorkerReply): void => (self as unknown as DedicatedWorkerGlobalScope).postMessage(m);
-const RAD_PER_DEG = Math.PI / 180;
 
 function handle(req: WorkerRequest): void {
   const t0 = performance.now();
@@ -45,7 +46,7 @@ function handle(req: WorkerRequest): void {
       // As the compare command with one file: the vehicle as given first, then each build.
       const builds = s.builds ?? [];
       if (builds.length === 0) throw new Error('the scenario has no builds');
-      const applied: AppliedBuild[] = [{ name: 'as given', vehicle: s.vehicle, changes: ['as given'] }, ...builds.slice(0, MAX_BUILDS - 1).map((b) => applyBuild(s.vehicle, b))];
+      const applied: AppliedBuild[] = [{ name: 'as given', vehicle: s.vehicle, changes: AS_GIVEN }, ...builds.slice(0, MAX_BUILDS - 1).map((b) => applyBuild(s.vehicle, b))];
       const rows = compareVehicles(applied, {
         terrain: s.terrain,
         path: s.path,
@@ -66,6 +67,7 @@ function handle(req: WorkerRequest): void {
       const html = renderReportHtml(data, {
         toolVersion: req.toolVersion,
         dateText: req.dateText,
+        ...(req.units ? { units: req.units } : {}),
         ...(req.sceneImageDataUrl ? { sceneImageDataUrl: req.sceneImageDataUrl } : {}),
       });
       post({ type: 'report', id: req.id, html, wallMs: performance.now() - t0 });

@@ -17,6 +17,8 @@ export type WorkerRequest =
       readonly toolVersion: string;
       readonly dateText: string;
       readonly sceneImageDataUrl: string | null;
+      /** Units the report is written in (the app's display units). @default the scenario file's */
+      readonly units?: 'metric' | 'imperial';
     };
 
 export type WorkerReply =

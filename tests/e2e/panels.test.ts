@@ -11,16 +11,16 @@ import type { Browser, BrowserContext, Page } from 'playwright-core';
 import ledge from '../../assets/scenarios/ledge-crawler.json';
 import demo from '../../assets/scenarios/side-hill-stock.json';
 import {
-  REPORT_CAUTIONS,
   STANDARD_GRAVITY_M_PER_S2,
   buildModel,
   cgFromLevelReadings,
   cgHeightFromAxleLift,
-  esc,
   parseScenario,
   passOptionsOf,
   type Scenario,
 } from '../../src/core';
+import { REPORT_CAUTIONS, esc } from '../../src/report';
+import { significant } from '../../src/present/units';
 import { runPassWithSolves } from '../../src/worker/passReplay';
 import { isHarmless, launchChromium, waitForScene } from './browser';
 
@@ -91,7 +91,7 @@ it('obstacle pass: the headline is the core\'s, scrubbing poses the vehicle at t
   expect(m, text).not.toBeNull();
   expect(m![1]).toBe(pass.firstUnload!.wheel);
   expect(Number(m![2])).toBeCloseTo(pass.firstUnload!.distanceM, 2);
-  const mm = /smallest margin (\d+\.\d)° at (\d+\.\d\d) m/.exec(text);
+  const mm = /smallest force-angle margin (\d+\.\d)° at (\d+\.\d\d) m/.exec(text);
   expect(mm, text).not.toBeNull();
   expect(Number(mm![1])).toBeCloseTo((pass.minMargin!.forceAngleRad * 180) / Math.PI, 1);
   expect(Number(mm![2])).toBeCloseTo(pass.minMargin!.distanceM, 2);
@@ -104,12 +104,12 @@ it('obstacle pass: the headline is the core\'s, scrubbing poses the vehicle at t
   expect(Math.abs(kg(b, 0) - kg(a, 0))).toBeGreaterThan(20);
   const scrub = page.getByTestId('pass-station');
   await scrub.fill(String(a));
-  await expect.poll(async () => kgOf((await page.getByTestId('wheel-load-FL').textContent()) ?? '')).toBe(Math.round(kg(a, 0)));
+  await expect.poll(async () => kgOf((await page.getByTestId('wheel-load-FL').textContent()) ?? '')).toBe(Number(significant(kg(a, 0)))); // loads to 3 significant figures (src/present)
   await scrub.fill(String(b));
-  await expect.poll(async () => kgOf((await page.getByTestId('wheel-load-FL').textContent()) ?? '')).toBe(Math.round(kg(b, 0)));
+  await expect.poll(async () => kgOf((await page.getByTestId('wheel-load-FL').textContent()) ?? '')).toBe(Number(significant(kg(b, 0))));
   for (let k = 0; k < 4; k++) {
     const name = ['FL', 'FR', 'RL', 'RR'][k];
-    expect(kgOf((await page.getByTestId(`wheel-load-${name}`).textContent()) ?? '')).toBe(Math.round(kg(b, k)));
+    expect(kgOf((await page.getByTestId(`wheel-load-${name}`).textContent()) ?? '')).toBe(Number(significant(kg(b, k))));
   }
   // The scene draws the station: the shown pose is the station's, the scenario is unchanged.
   const st = await page.evaluate(() => {

@@ -1,21 +1,20 @@
 /**
- * The report core (src/core/report): a pure HTML string from collected results. Checks: the SSF
+ * The report (src/report): a pure HTML string from collected results. Checks: the SSF
  * against its formula, the drawing's geometry against the vehicle, the optional sections, the
  * cautions, the methods named, determinism (the core reads no clock), and self-containment.
  */
 import { readFileSync } from 'node:fs';
 import { beforeAll, describe, expect, it } from 'vitest';
+import { parseScenarioText, type Scenario } from '../../src/core/index';
 import {
   COMMON_PRACTICE_MAX_SLOPE_DEG,
   REPORT_CAUTIONS,
   collectReport,
   esc,
-  parseScenarioText,
   renderReportHtml,
   vehicleDrawing,
   type ReportData,
-  type Scenario,
-} from '../../src/core/index';
+} from '../../src/report/index';
 
 function load(file: string): Scenario {
   const r = parseScenarioText(readFileSync(file, 'utf8'));
@@ -73,8 +72,8 @@ describe('report content', () => {
     for (const id of ['summary', 'scenario', 'rose', 'pass', 'drawing', 'cg-band', 'methods']) expect(html).toContain(`id="${id}"`);
     expect(html).not.toContain('id="builds"');
     expect(html).toContain('<th>wheelbase</th><td>3.100 m</td>');
-    expect(html).toContain('wheel rate (N/m)');
-    expect(html).toContain('Tyre loads (N) along the path');
+    expect(html).toContain('wheel rate (N/mm)');
+    expect(html).toContain('Normal load per tyre (kN) along the path');
     expect(html).toContain('Force-angle margin along the path');
     expect(html).toContain('Energy margin along the path');
     // Rose, three pass charts, drawing: at least five inline charts.

@@ -5,7 +5,8 @@
  */
 import { describe, expect, it } from 'vitest';
 import demo from '../../assets/scenarios/side-hill-stock.json';
-import { collectReport, parseScenario, renderReportHtml } from '../../src/core';
+import { parseScenario } from '../../src/core';
+import { collectReport, renderReportHtml } from '../../src/report';
 
 const p = parseScenario(demo);
 if (!p.ok) throw new Error('demo');

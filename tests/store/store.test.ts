@@ -183,3 +183,15 @@ describe('persistence', () => {
     expect(bad?.ok).toBe(false);
   });
 });
+
+describe('display units follow an opened file', () => {
+  it('opening an imperial file shows imperial, a metric one metric', async () => {
+    const { readFileSync } = await import('node:fs');
+    const imperial = JSON.parse(readFileSync('tests/fixtures/side-hill-stock-imperial.json', 'utf8'));
+    const store = createPlumbStore(demoScenario(), 'metric');
+    expect(store.getState().importData(imperial)).toBe(true);
+    expect(store.getState().units).toBe('imperial');
+    expect(store.getState().importData(demo)).toBe(true);
+    expect(store.getState().units).toBe('metric');
+  });
+});

@@ -14,7 +14,7 @@ import buildsDemo from '../../assets/scenarios/side-hill-builds.json';
 import { applyBuild, buildModel, parseScenario, passOptionsOf, runPass, solveEquilibrium, type Scenario, type Vehicle } from '../../src/core';
 import { createPlumbStore, shownModel, shownPose, shownResult, shownVehicle } from '../../src/store/store';
 import { runPassWithSolves } from '../../src/worker/passReplay';
-import { passHeadline } from '../../src/app/passWords';
+import { passHeadline } from '../../src/present/words';
 
 function scenarioOf(data: unknown): Scenario {
   const p = parseScenario(data);
@@ -51,7 +51,7 @@ describe('pass replay (the full solve per station, for the scene)', () => {
     const pass = runPass(buildModel(s.vehicle, s.terrain), s.path!, passOptionsOf(s));
     const text = passHeadline(pass, 'metric');
     const deg = ((pass.minMargin!.forceAngleRad * 180) / Math.PI).toFixed(1);
-    expect(text).toContain(`smallest margin ${deg}° at ${pass.minMargin!.distanceM.toFixed(2)} m`);
+    expect(text).toContain(`smallest force-angle margin ${deg}° at ${pass.minMargin!.distanceM.toFixed(2)} m`);
     if (pass.firstUnload) expect(text.startsWith(`${pass.firstUnload.wheel} unloads first at ${pass.firstUnload.distanceM.toFixed(2)} m`)).toBe(true);
     else expect(text).toMatch(/^No wheel goes below 25 %/);
     // Imperial: distances in feet (1 ft = 0.3048 m exactly).

@@ -8,8 +8,8 @@ import * as THREE from 'three';
 import demo from '../../assets/scenarios/side-hill-stock.json';
 import { GRAVITY_MPS2, TerrainField, buildModel, parseScenario, solveEquilibrium, type Scenario } from '../../src/core';
 import { bodyMatrix, terrainBuffers, tiltQuaternion } from '../../src/view/adapters';
-import { VIRIDIS_STOPS, viridisRGB } from '../../src/view/colormap';
-import { warningsFor } from '../../src/app/warnings';
+import { loadColourAt, loadColourRGB } from '../../src/present/palette';
+import { warningsFor } from '../../src/present/words';
 
 const DEG = Math.PI / 180;
 
@@ -91,13 +91,13 @@ describe('terrainBuffers', () => {
 
 describe('viridis', () => {
   it('runs from #440154 to #fde725 (matplotlib viridis ends) with rising luminance', () => {
-    expect(VIRIDIS_STOPS[0]).toBe('#440154');
-    expect(VIRIDIS_STOPS[VIRIDIS_STOPS.length - 1]).toBe('#fde725');
+    expect(loadColourAt(0)).toBe('#440154');
+    expect(loadColourAt(1)).toBe('#fde725');
     const lin = (c: number) => (c <= 0.04045 ? c / 12.92 : ((c + 0.055) / 1.055) ** 2.4);
     // Relative luminance, WCAG 2.x / sRGB (IEC 61966-2-1): it must rise monotonically along the scale.
     let prev = -1;
     for (let t = 0; t <= 1.0001; t += 0.02) {
-      const [r, g, b] = viridisRGB(t);
+      const [r, g, b] = loadColourRGB(t, [0, 0, 0]);
       const y = 0.2126 * lin(r) + 0.7152 * lin(g) + 0.0722 * lin(b);
       expect(y).toBeGreaterThan(prev);
       prev = y;

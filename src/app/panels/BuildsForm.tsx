@@ -18,7 +18,8 @@ import {
 } from '../../core';
 import { MAX_FORM_BUILDS, addBuild, buildFilePath, moveBuild, removeBuild, replaceBuild, setBuildValue, validateBuilds } from '../buildEdit';
 import { errorFor, getIn, type Key } from '../edit';
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { usePlumb, usePlumbStore } from '../../store/react';
+import { buildChangesWords } from '../../present/words';
 
 /** How a value is shown: SI → display number, back, and the unit. */
 interface Display {
@@ -456,7 +457,7 @@ export function BuildsForm() {
                   </button>
                 </div>
               </div>
-              {isOpen ? <BuildFields i={i} b={b} v={vehicle} units={units} commit={commitFor(i)} /> : <p className="fineprint">{applyBuild(vehicle, b).changes.join('; ')}</p>}
+              {isOpen ? <BuildFields i={i} b={b} v={vehicle} units={units} commit={commitFor(i)} /> : <p className="fineprint">{buildChangesWords(applyBuild(vehicle, b).changes, units)}</p>}
             </li>
           );
         })}

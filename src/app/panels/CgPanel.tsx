@@ -9,8 +9,8 @@ import {
   type Scenario,
 } from '../../core';
 import { setIn, validate } from '../edit';
-import { lengthText } from '../format';
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { angleText, fromDisplay, lengthText, massText, shortText, unitSymbol } from '../../present/units';
+import { usePlumb, usePlumbStore } from '../../store/react';
 import { NumberField } from './NumberField';
 
 interface Readings {
@@ -180,12 +180,12 @@ export function CgPanel() {
           {calc.error ? <p className="field-error">{calc.error}</p> : null}
           {calc.level ? (
             <p>
-              Mass {units === 'metric' ? `${calc.level.massKg.toFixed(1)} kg` : `${(calc.level.massKg / 0.45359237).toFixed(1)} lb`}; CG {lengthText(calc.level.behindFrontAxleM, units)} behind the front axle,{' '}
+              Mass {massText(calc.level.massKg, units)}; CG {lengthText(calc.level.behindFrontAxleM, units)} behind the front axle,{' '}
               {lengthText(calc.level.leftOfCentreM ?? 0, units)} left of centre
               {calc.lift ? (
                 <>
-                  , <b data-testid="cg-height">{lengthText(calc.lift.heightM, units)} high</b> (raise angle {((calc.lift.raiseAngleRad * 180) / Math.PI).toFixed(1)}°; each {units === 'metric' ? 'kg' : 'lb'} of reading error moves it by{' '}
-                  {lengthText(calc.lift.heightPerReadingErrorM * g * (units === 'metric' ? 1 : 0.45359237), units)})
+                  , <b data-testid="cg-height">{lengthText(calc.lift.heightM, units)} high</b> (raise angle {angleText(calc.lift.raiseAngleRad)} from level; each {unitSymbol('scale', units)} of reading error moves it by{' '}
+                  {shortText(calc.lift.heightPerReadingErrorM * fromDisplay('scale', 1, units), units)})
                 </>
               ) : (
                 ' (the height needs the raised readings)'

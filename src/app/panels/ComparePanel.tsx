@@ -1,46 +1,17 @@
 import { useState } from 'react';
-import { MAX_BUILDS, type BuildRow, type MetricName, type Scenario } from '../../core';
+import { MAX_BUILDS, type BuildRow, type Scenario } from '../../core';
 import buildsDemo from '../../../assets/scenarios/side-hill-builds.json';
 import { runJob } from '../../worker/client';
 import type { ReplyOf } from '../../worker/messages';
-import { DEG_PER_RAD, distanceUnit, distanceValue, fromSILength, lengthUnit } from '../format';
+import { BUILD_METRICS, METRICS_NOTE, changeSense, metricUnit, metricValue } from '../../present/metrics';
+import { QUASI_STATIC_CAUTION, buildChangesWords } from '../../present/words';
 import { useWorkerJob } from './useWorkerJob';
-import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../storeContext';
+import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../../store/react';
 import { BuildsForm } from './BuildsForm';
 
 type Done = ReplyOf<'compare'> & { readonly for: Scenario };
 
 const buildLabel = (name: string): string => `the build "${name}"`;
-type Kind = 'ratio' | 'length' | 'angle' | 'distance' | 'direction';
-
-/**
- * Rows of the table: every quantity the compare command prints, in its order (builds are the
- * columns, as in the command's table).
- */
-const QUANTITIES: readonly (readonly [MetricName, string, Kind])[] = [
-  ['ssf', 'SSF (T/2h)', 'ratio'],
-  ['cgHeightM', 'CG height with payload', 'length'],
-  ['trackMeanM', 'Mean track', 'length'],
-  ['noseDownLiftRad', 'Nose down: first lift', 'angle'],
-  ['noseDownTipRad', 'Nose down: tip', 'angle'],
-  ['tailDownLiftRad', 'Tail down: first lift', 'angle'],
-  ['tailDownTipRad', 'Tail down: tip', 'angle'],
-  ['leftDownLiftRad', 'Left down: first lift', 'angle'],
-  ['leftDownTipRad', 'Left down: tip', 'angle'],
-  ['rightDownLiftRad', 'Right down: first lift', 'angle'],
-  ['rightDownTipRad', 'Right down: tip', 'angle'],
-  ['weakestDownhillRad', 'Weakest direction', 'direction'],
-  ['weakestTipRad', 'Weakest direction: tip', 'angle'],
-  ['passFirstUnloadM', 'Pass: first wheel light at', 'distance'],
-  ['passFirstLiftM', 'Pass: first lift at', 'distance'],
-  ['passTipM', 'Pass: tips at', 'distance'],
-  ['passMinForceAngleRad', 'Pass: smallest force-angle', 'angle'],
-  ['passMinEnergyM', 'Pass: energy margin there', 'length'],
-  ['passMinClearanceM', 'Pass: least clearance', 'length'],
-];
-
-/** A change of direction, the short way round (−180° to 180°). */
-const wrapRad = (a: number): number => Math.atan2(Math.sin(a), Math.cos(a));
 
 /**
  * Builds side by side: the vehicle as given and each build of the scenario, as the compare
@@ -76,23 +47,6 @@ export function ComparePanel() {
     if (stale) return;
     if (i < 0) store.setState({ ghost: null });
     else store.getState().showBuild(rows[i].vehicle, buildLabel(rows[i].name), 'ghost');
-  };
-
-  const unitOf = (kind: Kind): string =>
-    kind === 'length' ? lengthUnit(units) : kind === 'distance' ? distanceUnit(units) : kind === 'ratio' ? '' : '°';
-  /** A value or (signed) its change, in the unit named at the row; '–' where it does not apply. */
-  const cell = (kind: Kind, si: number | null, signed = false): string => {
-    if (si === null) return '–';
-    const v = kind === 'direction' ? (signed ? wrapRad(si) : ((si % (2 * Math.PI)) + 2 * Math.PI) % (2 * Math.PI)) : si;
-    let text: string;
-    if (kind === 'direction') text = (v * DEG_PER_RAD).toFixed(0);
-    else if (kind === 'ratio') text = v.toFixed(3);
-    else if (kind === 'angle') text = (v * DEG_PER_RAD).toFixed(1);
-    else if (kind === 'distance') text = distanceValue(v, units).toFixed(2);
-    else text = fromSILength(v, units).toFixed(units === 'metric' ? 3 : 1);
-    // No "+" or "−" on a change that rounds to zero.
-    if (signed && Number(text) === 0) return text.replace(/^-/, '');
-    return signed && v > 0 ? `+${text}` : text;
   };
 
   return (
@@ -138,7 +92,7 @@ export function ComparePanel() {
                   <tr>
                     <th scope="col">Quantity</th>
                     {rows.map((r, i) => (
-                      <th key={r.name} scope="col" title={r.changes.join('\n')} data-testid={`compare-build-${i}`}>
+                      <th key={r.name} scope="col" title={buildChangesWords(r.changes, units, '\n')} data-testid={`compare-build-${i}`}>
                         [{i + 1}] {r.name}
                         {i === 0 ? <small> (reference)</small> : null}
                       </th>
@@ -146,18 +100,22 @@ export function ComparePanel() {
                   </tr>
                 </thead>
                 <tbody>
-                  {QUANTITIES.map(([k, label, kind]) => (
-                    <tr key={k} data-testid={`compare-row-${k}`}>
+                  {BUILD_METRICS.map((m) => (
+                    <tr key={m.key} data-testid={`compare-row-${m.key}`}>
                       <th scope="row">
-                        {label}
-                        {unitOf(kind) ? <span className="unit"> ({unitOf(kind)})</span> : null}
+                        {m.label.charAt(0).toUpperCase() + m.label.slice(1)}
+                        {metricUnit(m.kind, units) ? <span className="unit"> ({metricUnit(m.kind, units)})</span> : null}
                       </th>
                       {rows.map((r, i) => (
-                        <td key={r.name} data-testid={`compare-${k}-${i}`} data-value={r.metrics[k] ?? ''}>
-                          {cell(kind, r.metrics[k])}
+                        <td key={r.name} data-testid={`compare-${m.key}-${i}`} data-value={r.metrics[m.key] ?? ''}>
+                          {metricValue(m.kind, r.metrics[m.key], units)}
                           {i > 0 ? (
-                            <small className="change" data-testid={`compare-${k}-${i}-change`} data-value={r.change[k] ?? ''}>
-                              {cell(kind, r.change[k], true)}
+                            <small
+                              className={`change${changeSense(m, r.change[m.key]) > 0 ? ' better' : changeSense(m, r.change[m.key]) < 0 ? ' worse' : ''}`}
+                              data-testid={`compare-${m.key}-${i}-change`}
+                              data-value={r.change[m.key] ?? ''}
+                            >
+                              {metricValue(m.kind, r.change[m.key], units, true)}
                             </small>
                           ) : null}
                         </td>
@@ -168,7 +126,7 @@ export function ComparePanel() {
               </table>
             </div>
             <p className="fineprint">
-              Builds as columns, [1] the reference; under each value its change from [1]. Tilt angles on a level tilt table; the weakest direction is the downhill direction, counter-clockwise from the nose (90° left side down); the pass on the scenario path (– where no wheel lifts or nothing tips). Hover a build for what was changed.
+              Builds as columns, [1] the reference; under each value its change from [1]. {METRICS_NOTE} Hover a build for what was changed.
             </p>
             <fieldset className="group">
               <legend>In the scene</legend>
@@ -218,11 +176,13 @@ export function ComparePanel() {
             <ul className="changes">
               {rows.slice(1).map((r: BuildRow) => (
                 <li key={r.name}>
-                  <b>{r.name}</b>: {r.changes.join('; ')}
+                  <b>{r.name}</b>: {buildChangesWords(r.changes, units)}
                 </li>
               ))}
             </ul>
-            <p className="fineprint">{done.wallMs.toFixed(0)} ms. Quasi-static estimates on rigid ground; real margins are smaller.</p>
+            <p className="fineprint">
+              {done.wallMs.toFixed(0)} ms. {QUASI_STATIC_CAUTION}
+            </p>
           </div>
         ) : null}
       </details>

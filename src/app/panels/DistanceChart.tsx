@@ -1,5 +1,5 @@
 import type { MouseEvent } from 'react';
-import { fmt, niceStep } from './chartScale';
+import { extent, linearAxis } from '../../present/scale';
 
 export interface DistanceSeries {
   readonly label: string;
@@ -60,33 +60,15 @@ export function DistanceChart({
   const H = height - pad.t - pad.b;
   const x0 = distances.length > 0 ? distances[0] : 0;
   const x1 = distances.length > 1 ? distances[distances.length - 1] : x0 + 1;
-  let lo = Infinity;
-  let hi = -Infinity;
-  if (yRange) [lo, hi] = yRange;
-  else {
-    for (const s of series) {
-      for (const v of s.values) {
-        if (v !== null && Number.isFinite(v)) {
-          lo = Math.min(lo, v);
-          hi = Math.max(hi, v);
-        }
-      }
-    }
-    if (!Number.isFinite(lo)) [lo, hi] = [0, 1];
-    if (includeZero) [lo, hi] = [Math.min(lo, 0), Math.max(hi, 0)];
-    if (hi - lo < 1e-9) hi = lo + 1;
-    const st = niceStep((hi - lo) / 4);
-    lo = Math.floor(lo / st) * st;
-    hi = Math.ceil(hi / st) * st;
-  }
-  const yStep = niceStep((hi - lo) / 4);
-  const X = (x: number) => pad.l + ((x - x0) / (x1 - x0)) * W;
-  const Y = (v: number) => pad.t + H - ((v - lo) / (hi - lo)) * H;
-  const xStep = niceStep((x1 - x0) / 6);
-  const xTicks: number[] = [];
-  for (let x = Math.ceil(x0 / xStep) * xStep; x <= x1 + 1e-9; x += xStep) xTicks.push(x);
-  const yTicks: number[] = [];
-  for (let v = Math.ceil(lo / yStep - 1e-9) * yStep; v <= hi + 1e-9; v += yStep) yTicks.push(v);
+  // A fixed range as given; otherwise the data's, rounded out to whole ticks.
+  const [dlo, dhi] = yRange ?? extent(series.map((s) => s.values), includeZero ? [0] : []);
+  const yAxis = linearAxis(dlo, dhi, pad.t + H, pad.t, 4, !yRange);
+  const [lo, hi] = yAxis.domain;
+  const xAxis = linearAxis(x0, x1, pad.l, pad.l + W, 6, false);
+  const X = (x: number) => xAxis.scale(x);
+  const Y = (v: number) => yAxis.scale(v);
+  const xTicks = xAxis.ticks;
+  const yTicks = yAxis.ticks;
   const pick = (e: MouseEvent<SVGRectElement>) => {
     if (!onPick) return;
     const box = e.currentTarget.getBoundingClientRect();
@@ -115,7 +97,7 @@ export function DistanceChart({
         <g key={`y${v}`}>
           <line x1={pad.l} x2={pad.l + W} y1={Y(v)} y2={Y(v)} stroke={Math.abs(v) < 1e-9 ? '#bbb' : '#ececec'} />
           <text x={pad.l - 4} y={Y(v) + 3.5} textAnchor="end" fontSize="10">
-            {fmt(v)}
+            {yAxis.label(v)}
           </text>
         </g>
       ))}
@@ -123,7 +105,7 @@ export function DistanceChart({
         <g key={`x${x}`}>
           <line x1={X(x)} x2={X(x)} y1={pad.t} y2={pad.t + H} stroke="#f0f0f0" />
           <text x={X(x)} y={pad.t + H + 12} textAnchor="middle" fontSize="10">
-            {fmt(x)}
+            {xAxis.label(x)}
           </text>
         </g>
       ))}

@@ -1,6 +1,6 @@
 import { useCallback, useEffect, useState } from 'react';
 import { browserGarage, type GarageItem } from '../../store/garage';
-import { usePlumbStore } from '../storeContext';
+import { usePlumbStore } from '../../store/react';
 
 /**
  * The garage: vehicles and scenarios kept in this browser, each with a name, a customer or unit

@@ -1,4 +1,4 @@
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { usePlumb, usePlumbStore } from '../../store/react';
 
 /** Why the last file could not be opened; the scenario on screen was kept. */
 export function ImportErrors() {

@@ -1,9 +1,9 @@
 import { useState } from 'react';
 import type { LineSummary, Scenario, SweepRange } from '../../core';
 import { runLines, type LineSweepReply } from '../../worker/client';
-import { DEG_PER_RAD, distanceText, fromSILength, lengthUnit } from '../format';
+import { RAD_PER_DEG, angleText, changeText, distanceText } from '../../present/units';
 import { useWorkerJob } from './useWorkerJob';
-import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../storeContext';
+import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../../store/react';
 import { NumberField } from './NumberField';
 
 type Done = LineSweepReply & { readonly for: Scenario };
@@ -42,7 +42,7 @@ export function LinesPanel() {
   const units = usePlumb((s) => s.units);
   const chosen = usePlumb((s) => s.overlayPath);
   const [offsets, setOffsets] = useState<SweepRange>({ from: -1, to: 1, step: 0.5 });
-  const [headings, setHeadings] = useState<SweepRange>({ from: -5 / DEG_PER_RAD, to: 5 / DEG_PER_RAD, step: 5 / DEG_PER_RAD });
+  const [headings, setHeadings] = useState<SweepRange>({ from: -5 * RAD_PER_DEG, to: 5 * RAD_PER_DEG, step: 5 * RAD_PER_DEG });
   const [done, setDone] = useState<Done | null>(null);
   const { progress, message, run, cancel } = useWorkerJob();
   if (!scenario.path) {
@@ -70,7 +70,7 @@ export function LinesPanel() {
   const list: { line: LineSummary; rank: number }[] = ranked.map((line, i) => ({ line, rank: i + 1 }));
   const shown = list.length <= SHOWN_LINES ? list : [...list.slice(0, SHOWN_LINES / 2), ...list.slice(-SHOWN_LINES / 2)];
   const words = (l: LineSummary): string => {
-    const parts = [`margin ${(l.minForceAngleRad * DEG_PER_RAD).toFixed(1)}° at ${distanceText(l.minMarginDistanceM, units)}`];
+    const parts = [`force-angle margin ${angleText(l.minForceAngleRad)} at ${distanceText(l.minMarginDistanceM, units)}`];
     if (l.tip) parts.push(`tips at ${distanceText(l.tip.distanceM, units)}`);
     else if (l.firstLift) parts.push(`${l.firstLift.wheel} lifts at ${distanceText(l.firstLift.distanceM, units)}`);
     else if (l.firstUnload) parts.push(`${l.firstUnload.wheel} light at ${distanceText(l.firstUnload.distanceM, units)}`);
@@ -112,9 +112,7 @@ export function LinesPanel() {
                   {k === SHOWN_LINES / 2 && list.length > SHOWN_LINES ? <span className="gap">…</span> : null}
                   <button type="button" className="link" data-testid={`lines-row-${rank - 1}`} onClick={() => store.getState().setOverlayPath(line.path)}>
                     {rank === 1 ? 'Best: ' : rank === list.length ? 'Worst: ' : ''}
-                    {line.offsetM >= 0 ? '+' : ''}
-                    {fromSILength(line.offsetM, units).toFixed(units === 'metric' ? 2 : 1)} {lengthUnit(units)}, {line.headingChangeRad >= 0 ? '+' : ''}
-                    {(line.headingChangeRad * DEG_PER_RAD).toFixed(1)}°: {words(line)}
+                    offset {changeText('distance', line.offsetM, units)}, heading {changeText('angle', line.headingChangeRad, units)}: {words(line)}
                   </button>
                 </li>
               ))}

@@ -1,10 +1,9 @@
 import { useMemo } from 'react';
-import { STANDARD_GRAVITY_M_PER_S2 } from '../../core';
-import { angleText, forceText, lengthText, percentText, scaleText, travelText } from '../format';
-import { usePlumb, usePlumbStore } from '../storeContext';
-import { warningsFor } from '../warnings';
+import { OF_STATIC_NOTE, STANDARD_GRAVITY_M_PER_S2, angleText, forceText, percentText, scaleText, shortText } from '../../present/units';
+import { QUASI_STATIC_CAUTION, statusWords, warningsFor } from '../../present/words';
+import { loadShareColour } from '../../present/palette';
+import { usePlumb, usePlumbStore } from '../../store/react';
 import { shownResult } from '../../store/store';
-import { viridisCss } from '../../view/colormap';
 
 /** Side table: the four tyre loads, weight, margins and warnings in words. */
 export function LoadsPanel() {
@@ -15,7 +14,7 @@ export function LoadsPanel() {
   const friction = usePlumb((s) => s.scenario.friction);
   const warnings = useMemo(() => warningsFor(r, friction), [r, friction]);
   let sum = 0;
-  for (const w of r.wheels) sum += (w.verticalLoadN ?? 0);
+  for (const w of r.wheels) sum += (w.verticalLoadN as number | null) ?? 0;
   return (
     <section className="panel" aria-labelledby="loads-h">
       <h2 id="loads-h">Tyre loads</h2>
@@ -42,17 +41,16 @@ export function LoadsPanel() {
         </thead>
         <tbody>
           {r.wheels.map((w) => {
-            const share = w.staticLoadN > 0 ? (w.verticalLoadN ?? 0) / w.staticLoadN : 0;
             return (
               <tr key={w.name} className={w.lifted ? 'lifted' : undefined} data-testid={`table-load-${w.name}`}>
                 <th scope="row">
-                  <span className="swatch" style={{ background: viridisCss(share / 2) }} aria-hidden="true" /> {w.name}
+                  <span className="swatch" style={{ background: loadShareColour(w.loadShare) }} aria-hidden="true" /> {w.name}
                 </th>
-                <td>{w.lifted ? <strong>LIFTED</strong> : scaleText((w.verticalLoadN ?? 0), units)}</td>
-                <td>{forceText((w.loadN ?? 0), units)}</td>
-                <td>{percentText(share)}</td>
+                <td>{w.lifted ? <strong>LIFTED</strong> : scaleText(w.verticalLoadN, units)}</td>
+                <td>{forceText(w.loadN, units)}</td>
+                <td>{percentText(w.loadShare)}</td>
                 <td>
-                  {travelText((w.travelM ?? 0), units)} <small>({Math.round((w.travelFraction ?? 0) * 100)} %)</small>
+                  {shortText(w.travelM, units)} <small>({percentText(w.travelFraction)})</small>
                 </td>
               </tr>
             );
@@ -67,10 +65,10 @@ export function LoadsPanel() {
         </tfoot>
       </table>
       <p className="status" data-testid="solve-status">
-        {r.status === 'converged' ? 'Balanced' : r.status === 'tipped' ? 'Tipped' : r.status === 'no-contact' ? 'No contact' : 'Not settled'}
+        {statusWords(r.status)}
         {' · '}force-angle margin {angleText(r.margins.forceAngleRad)}
-        {' · '}plumb point {lengthText(r.margins.staticM, units)} inside the support
-        {' · '}body roll {angleText(r.body.rollToLevelRad)} and pitch {angleText(r.body.pitchToLevelRad)} to level
+        {' · '}plumb point {shortText(r.margins.staticM, units)} inside the support
+        {' · '}body roll {angleText(r.body.rollToLevelRad)} and pitch {angleText(r.body.pitchToLevelRad)} from level
       </p>
       <ul className="warnings" data-testid="warnings" aria-live="polite">
         {warnings.length === 0 ? <li className="note">No lift or tip warnings at this pose.</li> : null}
@@ -82,9 +80,10 @@ export function LoadsPanel() {
         ))}
       </ul>
       <p className="fineprint">
-        Loads are scale readings: force along gravity divided by g = {STANDARD_GRAVITY_M_PER_S2} m/s², so the four add up
-        to the weight on any slope. Normal load is the force across the contact.
+        Scale reading: force along gravity divided by g = {STANDARD_GRAVITY_M_PER_S2} m/s², so the four add up to the
+        weight on any slope. Normal load is the force across the contact. {OF_STATIC_NOTE}
       </p>
+      <p className="fineprint">{QUASI_STATIC_CAUTION}</p>
     </section>
   );
 }

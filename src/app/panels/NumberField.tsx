@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { useEditedText } from './useEditedText';
 import type { QuantityKind, UnitSystem } from '../../core';
-import { fieldUnit, fieldValue } from '../format';
+import { fieldUnit, fieldValue } from '../../present/fields';
 import { toSI } from '../../core';
 
 export interface NumberFieldProps {

@@ -2,11 +2,11 @@ import { useEffect, useMemo, useRef, useState } from 'react';
 import { WHEEL_NAMES, type PassResult, type Scenario, type SolveResult } from '../../core';
 import { runJob } from '../../worker/client';
 import type { ReplyOf } from '../../worker/messages';
-import { WHEEL_COLOURS, WHEEL_DASHES } from '../../view/colormap';
-import { DEG_PER_RAD, distanceText, distanceUnit, distanceValue, forceUnit, forceValue, fromSILength, lengthUnit } from '../format';
-import { eventWords, passHeadline } from '../passWords';
+import { ENERGY_COLOUR, MARGIN_COLOUR, WHEEL_COLOURS, WHEEL_DASHES } from '../../present/palette';
+import { angleText, distanceText, radToDeg, shortText, toDisplay, unitSymbol } from '../../present/units';
+import { QUASI_STATIC_CAUTION, eventWords, passHeadline } from '../../present/words';
 import { useWorkerJob } from './useWorkerJob';
-import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../storeContext';
+import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../../store/react';
 import { DistanceChart, type DistanceMark } from './DistanceChart';
 
 type Done = ReplyOf<'pass'> & { readonly for: Scenario };
@@ -87,7 +87,7 @@ export function PassPanel() {
   }
   const r = done?.result;
   const st = r?.stations[station];
-  const cur = st ? distanceValue(st.distanceM, units) : undefined;
+  const cur = st ? toDisplay('distance', st.distanceM, units) : undefined;
   const jumpTo = (x: number) => {
     if (!done) return;
     const xs = charts!.distances;
@@ -103,7 +103,7 @@ export function PassPanel() {
   };
   // What the four charts share: the distance axis, the events, the current station, the clicks.
   const chartCommon = charts
-    ? { distances: charts.distances, xUnit: distanceUnit(units), marks: charts.marks, current: cur, onPick: jumpTo, onMark }
+    ? { distances: charts.distances, xUnit: unitSymbol('distance', units), marks: charts.marks, current: cur, onPick: jumpTo, onMark }
     : null;
   return (
     <section className="panel" aria-labelledby="pass-h">
@@ -112,7 +112,8 @@ export function PassPanel() {
           <h2 id="pass-h">Obstacle pass</h2>
         </summary>
         <p className="hint">
-          Crawl from ({scenario.path.fromM.join(', ')}) m to ({scenario.path.toM.join(', ')}) m, a station every {distanceText(scenario.path.stepM, units)}, each a standing pose.
+          Crawl from ({scenario.path.fromM.map((m) => distanceText(m, units)).join(', ')}) to ({scenario.path.toM.map((m) => distanceText(m, units)).join(', ')}), a station every{' '}
+          {distanceText(scenario.path.stepM, units)}, each a standing pose.
         </p>
         <div className="buttons">
           <button type="button" data-testid="pass-run" disabled={progress !== null} onClick={start}>
@@ -134,7 +135,7 @@ export function PassPanel() {
               data-testid="pass-headline"
               data-first-unload-wheel={r.firstUnload?.wheel ?? ''}
               data-first-unload-m={r.firstUnload?.distanceM ?? ''}
-              data-min-margin-deg={r.minMargin ? r.minMargin.forceAngleRad * DEG_PER_RAD : ''}
+              data-min-margin-deg={r.minMargin ? radToDeg(r.minMargin.forceAngleRad) : ''}
               data-min-margin-m={r.minMargin?.distanceM ?? ''}
             >
               {passHeadline(r, units)}
@@ -166,7 +167,7 @@ export function PassPanel() {
             {st ? (
               <p className="fineprint" data-testid="pass-station-summary">
                 {st.status === 'converged' || st.approximate
-                  ? `Force-angle margin ${(st.forceAngleRad * DEG_PER_RAD).toFixed(1)}°, body roll ${(st.rollRad * DEG_PER_RAD).toFixed(1)}°, pitch ${(st.pitchRad * DEG_PER_RAD).toFixed(1)}°, underbody gap ${(fromSILength(st.clearanceM, units)).toFixed(units === 'metric' ? 3 : 1)} ${lengthUnit(units)}${st.approximate ? ' (approximate solve)' : ''}.`
+                  ? `Force-angle margin ${angleText(st.forceAngleRad)}, body roll ${angleText(st.rollRad)} and pitch ${angleText(st.pitchRad)} from level, underbody gap ${shortText(st.clearanceM, units)}${st.approximate ? ' (approximate solve)' : ''}.`
                   : `No balance here (${st.status}): the pass stops.`}
               </p>
             ) : null}
@@ -174,7 +175,7 @@ export function PassPanel() {
               {...chartCommon!}
               testId="pass-chart-loads"
               series={charts.loads}
-              yLabel={`Normal load per tyre (${forceUnit(units)})`}
+              yLabel={`Normal load per tyre (${unitSymbol('force', units)})`}
             />
             <DistanceChart
               {...chartCommon!}
@@ -194,7 +195,7 @@ export function PassPanel() {
               {...chartCommon!}
               testId="pass-chart-energy"
               series={charts.energy}
-              yLabel={`Energy margin (${lengthUnit(units)})`}
+              yLabel={`Energy margin: CG rise to tip (${unitSymbol('short', units)})`}
               height={120}
             />
             <h3 className="sub">Events (click to go there)</h3>
@@ -212,7 +213,7 @@ export function PassPanel() {
               </ol>
             )}
             <p className="fineprint">
-              {r.stations.length} of {r.plannedStations} stations in {done.wallMs.toFixed(0)} ms. Quasi-static: no speed, bounce or driver input; real margins are smaller.
+              {r.stations.length} of {r.plannedStations} stations in {done.wallMs.toFixed(0)} ms. {QUASI_STATIC_CAUTION}
             </p>
           </div>
         ) : null}
@@ -222,13 +223,16 @@ export function PassPanel() {
 }
 
 function chartData(r: PassResult, units: Scenario['units']) {
-  const distances = r.stations.map((s) => distanceValue(s.distanceM, units));
+  const distances = r.stations.map((s) => toDisplay('distance', s.distanceM, units));
   const ok = (s: PassResult['stations'][number]) => s.status === 'converged' || s.approximate;
   const loads = WHEEL_NAMES.map((name, k) => ({
     label: name,
     colour: WHEEL_COLOURS[k],
     dash: WHEEL_DASHES[k],
-    values: r.stations.map((s) => (ok(s) ? forceValue(s.wheels[k].loadN, units) : null)),
+    values: r.stations.map((s) => {
+      const l = s.wheels[k].loadN as number | null;
+      return ok(s) && l !== null ? toDisplay('force', l, units) : null;
+    }),
   }));
   const travel = WHEEL_NAMES.map((name, k) => ({
     label: name,
@@ -236,10 +240,10 @@ function chartData(r: PassResult, units: Scenario['units']) {
     dash: WHEEL_DASHES[k],
     values: r.stations.map((s) => (ok(s) ? 100 * s.wheels[k].travelFraction : null)),
   }));
-  const forceAngle = [{ label: 'force-angle', colour: '#0b3d91', values: r.stations.map((s) => (ok(s) ? s.forceAngleRad * DEG_PER_RAD : null)) }];
-  const energy = [{ label: 'energy', colour: '#6b3e00', values: r.stations.map((s) => (ok(s) ? fromSILength(s.energyM, units) : null)) }];
+  const forceAngle = [{ label: 'force-angle', colour: MARGIN_COLOUR, values: r.stations.map((s) => (ok(s) ? radToDeg(s.forceAngleRad) : null)) }];
+  const energy = [{ label: 'energy', colour: ENERGY_COLOUR, values: r.stations.map((s) => (ok(s) ? toDisplay('short', s.energyM, units) : null)) }];
   const marks: DistanceMark[] = r.events.map((e) => ({
-    x: distanceValue(e.startDistanceM, units),
+    x: toDisplay('distance', e.startDistanceM, units),
     label: eventWords(e, units),
     strong: e.kind === 'tip' || e.kind === 'lifted',
   }));

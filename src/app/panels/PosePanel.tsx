@@ -1,4 +1,4 @@
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { usePlumb, usePlumbStore } from '../../store/react';
 import { NumberField } from './NumberField';
 
 /** Where the vehicle stands on the terrain: reference point and heading. */

@@ -2,7 +2,7 @@ import { useEffect, useRef, useState } from 'react';
 import { version } from '../../../package.json';
 import { runJob, type Job } from '../../worker/client';
 import type { ReplyOf } from '../../worker/messages';
-import { usePlumbStore } from '../storeContext';
+import { usePlumbStore } from '../../store/react';
 
 /** The picture of the 3D view for the report: JPEG keeps a 1280×720 view near 100 kB. */
 function sceneImage(): string | null {
@@ -33,11 +33,11 @@ export function ReportPanel() {
   const job = useRef<Job<ReplyOf<'report'>> | null>(null);
   useEffect(() => () => job.current?.cancel(), []);
   const start = () => {
-    const s = store.getState().scenario;
+    const { scenario: s, units } = store.getState();
     const dateText = new Date().toISOString().slice(0, 10);
     setMessage(null);
     setStage('starting');
-    const j = runJob({ type: 'report', scenario: s, toolVersion: version, dateText, sceneImageDataUrl: sceneImage() }, (_d, _t, st) => setStage(st ?? null));
+    const j = runJob({ type: 'report', scenario: s, toolVersion: version, dateText, sceneImageDataUrl: sceneImage(), units }, (_d, _t, st) => setStage(st ?? null));
     job.current = j;
     j.done
       .then((r) => {
@@ -58,7 +58,7 @@ export function ReportPanel() {
   return (
     <section className="panel" aria-labelledby="report-h">
       <h2 id="report-h">Report</h2>
-      <p className="hint">One HTML file to keep or print: the loads, the tilt table each way, the rose, the pass, the builds and the cautions, with a picture of the 3D view as it is now.</p>
+      <p className="hint">One HTML file to keep or print, in the units chosen above: the loads, the tilt table each way, the rose, the pass, the builds and the cautions, with a picture of the 3D view as it is now.</p>
       <div className="buttons">
         <button type="button" data-testid="report-button" disabled={stage !== null} onClick={start}>
           {stage ? `Working: ${stage}…` : 'Make the report'}

@@ -1,9 +1,11 @@
 import { useState } from 'react';
 import type { RoseResult } from '../../core';
 import { runRose } from '../../worker/client';
-import { DEG_PER_RAD, angleText, downhillWords } from '../format';
+import { angleText, radToDeg } from '../../present/units';
+import { downhillWords } from '../../present/words';
+import { MARGIN_COLOUR, WHEEL_COLOURS } from '../../present/palette';
 import { useWorkerJob } from './useWorkerJob';
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { usePlumb, usePlumbStore } from '../../store/react';
 
 interface Done {
   result: RoseResult;
@@ -14,7 +16,9 @@ interface Done {
 function RosePlot({ rose, size = 300 }: { rose: RoseResult; size?: number }) {
   const c = size / 2;
   const R = c - 28;
-  const maxDeg = Math.min(90, Math.ceil((Math.max(...rose.directions.map((d) => (d.tip?.angleRad ?? rose.maxAngleRad) * DEG_PER_RAD)) + 1) / 10) * 10);
+  let top = 0;
+  for (const d of rose.directions) top = Math.max(top, radToDeg(d.tip?.angleRad ?? rose.maxAngleRad));
+  const maxDeg = Math.min(90, Math.ceil((top + 1) / 10) * 10);
   // Direction d (counter-clockwise from the nose) → nose at the top, left side to the left.
   const pt = (dirRad: number, deg: number) => {
     const r = (deg / maxDeg) * R;
@@ -24,7 +28,7 @@ function RosePlot({ rose, size = 300 }: { rose: RoseResult; size?: number }) {
     rose.directions
       .map((d) => {
         const a = key === 'tip' ? d.tip?.angleRad ?? rose.maxAngleRad : d.firstLift?.angleRad ?? d.tip?.angleRad ?? rose.maxAngleRad;
-        const [x, y] = pt(d.downhillRad, a * DEG_PER_RAD);
+        const [x, y] = pt(d.downhillRad, radToDeg(a));
         return `${x.toFixed(1)},${y.toFixed(1)}`;
       })
       .join(' ');
@@ -52,8 +56,8 @@ function RosePlot({ rose, size = 300 }: { rose: RoseResult; size?: number }) {
       <text x={size - 4} y={c + 4} textAnchor="end" fontSize="10">
         right
       </text>
-      <polygon points={ring('tip')} fill="rgba(11,61,145,0.08)" stroke="#0b3d91" strokeWidth={2} />
-      <polygon points={ring('lift')} fill="none" stroke="#D55E00" strokeWidth={2} strokeDasharray="5 3" />
+      <polygon points={ring('tip')} fill={MARGIN_COLOUR} fillOpacity={0.08} stroke={MARGIN_COLOUR} strokeWidth={2} />
+      <polygon points={ring('lift')} fill="none" stroke={WHEEL_COLOURS[1]} strokeWidth={2} strokeDasharray="5 3" />
     </svg>
   );
 }
@@ -92,7 +96,7 @@ export function RosePanel() {
             {stale ? <p className="hint">The scenario changed since this rose: run it again.</p> : null}
             <RosePlot rose={done.result} />
             <p>
-              Weakest direction: tips at {done.result.weakest.tip ? angleText(done.result.weakest.tip.angleRad) : '> 89°'} with{' '}
+              Weakest direction: tips at {done.result.weakest.tip ? `${angleText(done.result.weakest.tip.angleRad)} tilt from level` : 'no tip up to 89°'} with{' '}
               {downhillWords(done.result.weakest.downhillRad)}. First lift anywhere:{' '}
               {done.result.weakestLift.firstLift
                 ? `${done.result.weakestLift.firstLift.wheel} at ${angleText(done.result.weakestLift.firstLift.angleRad)}, ${downhillWords(done.result.weakestLift.downhillRad)}`

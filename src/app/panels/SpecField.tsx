@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { errorFor, getIn, validate, withField, type FieldSpec } from '../edit';
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { usePlumb, usePlumbStore } from '../../store/react';
 import { NumberField } from './NumberField';
 
 export interface SpecFieldProps {

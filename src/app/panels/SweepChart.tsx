@@ -1,7 +1,7 @@
 import { WHEEL_NAMES, type TiltSweepResult, type UnitSystem } from '../../core';
-import { fmt, niceStep } from './chartScale';
-import { DEG_PER_RAD, forceUnit, forceValue } from '../format';
-import { WHEEL_COLOURS, WHEEL_DASHES } from '../../view/colormap';
+import { linearAxis } from '../../present/scale';
+import { radToDeg, toDisplay, unitSymbol } from '../../present/units';
+import { WHEEL_COLOURS, WHEEL_DASHES } from '../../present/palette';
 
 export interface SweepChartProps {
   sweep: TiltSweepResult;
@@ -15,23 +15,24 @@ export interface SweepChartProps {
 /** The four normal tyre loads against tilt, plain SVG, with the first lift and the tip marked. */
 export function SweepChart({ sweep, units, currentRad, width = 360, height = 210 }: SweepChartProps) {
   const pad = { l: 46, r: 12, t: 12, b: 34 };
-  const samples = [...sweep.samples].filter((s) => s.status === 'converged').sort((a, b) => a.angleRad - b.angleRad);
-  const xMax = Math.max(1, Math.ceil(Math.max(...samples.map((s) => s.angleRad * DEG_PER_RAD), sweep.tip ? sweep.tip.angleRad * DEG_PER_RAD : 0) / 5) * 5);
+  const samples = sweep.samples.filter((s) => s.status === 'converged').sort((a, b) => a.angleRad - b.angleRad);
+  let degMax = sweep.tip ? radToDeg(sweep.tip.angleRad) : 0;
   let yMaxRaw = 0;
-  for (const s of samples) for (const l of s.loadsN) yMaxRaw = Math.max(yMaxRaw, forceValue(l, units));
-  const yStep = niceStep(yMaxRaw / 4);
-  const yMax = Math.max(yStep, Math.ceil(yMaxRaw / yStep) * yStep);
+  for (const s of samples) {
+    degMax = Math.max(degMax, radToDeg(s.angleRad));
+    for (const l of s.loadsN) if (l !== null) yMaxRaw = Math.max(yMaxRaw, toDisplay('force', l, units));
+  }
   const W = width - pad.l - pad.r;
   const H = height - pad.t - pad.b;
-  const X = (deg: number) => pad.l + (deg / xMax) * W;
-  const Y = (v: number) => pad.t + H - (v / yMax) * H;
-  const xTicks: number[] = [];
-  const xs = xMax <= 20 ? 5 : 10;
-  for (let d = 0; d <= xMax + 1e-9; d += xs) xTicks.push(d);
-  const yTicks: number[] = [];
-  for (let v = 0; v <= yMax + 1e-9; v += yStep) yTicks.push(v);
-  const lift = sweep.firstLift ? sweep.firstLift.angleRad * DEG_PER_RAD : null;
-  const tip = sweep.tip ? sweep.tip.angleRad * DEG_PER_RAD : null;
+  const xAxis = linearAxis(0, Math.max(1, degMax), pad.l, pad.l + W, 6);
+  const yAxis = linearAxis(0, yMaxRaw, pad.t + H, pad.t, 4);
+  const xMax = xAxis.domain[1];
+  const X = (deg: number) => xAxis.scale(deg);
+  const Y = (v: number) => yAxis.scale(v);
+  const xTicks = xAxis.ticks;
+  const yTicks = yAxis.ticks;
+  const lift = sweep.firstLift ? radToDeg(sweep.firstLift.angleRad) : null;
+  const tip = sweep.tip ? radToDeg(sweep.tip.angleRad) : null;
   return (
     <svg
       className="chart"
@@ -46,7 +47,7 @@ export function SweepChart({ sweep, units, currentRad, width = 360, height = 210
         <g key={`y${v}`}>
           <line x1={pad.l} x2={pad.l + W} y1={Y(v)} y2={Y(v)} stroke="#e3e3e3" />
           <text x={pad.l - 4} y={Y(v) + 4} textAnchor="end" fontSize="10">
-            {fmt(v)}
+            {yAxis.label(v)}
           </text>
         </g>
       ))}
@@ -54,15 +55,15 @@ export function SweepChart({ sweep, units, currentRad, width = 360, height = 210
         <g key={`x${d}`}>
           <line x1={X(d)} x2={X(d)} y1={pad.t} y2={pad.t + H} stroke="#eeeeee" />
           <text x={X(d)} y={pad.t + H + 13} textAnchor="middle" fontSize="10">
-            {d}°
+            {xAxis.label(d)}°
           </text>
         </g>
       ))}
       <text x={pad.l + W / 2} y={height - 4} textAnchor="middle" fontSize="10">
-        Tilt angle
+        Tilt angle from level
       </text>
       <text x={10} y={pad.t + H / 2} fontSize="10" textAnchor="middle" transform={`rotate(-90 10 ${pad.t + H / 2})`}>
-        Normal load ({forceUnit(units)})
+        Normal load ({unitSymbol('force', units)})
       </text>
       {WHEEL_NAMES.map((name, i) => (
         <polyline
@@ -71,7 +72,10 @@ export function SweepChart({ sweep, units, currentRad, width = 360, height = 210
           stroke={WHEEL_COLOURS[i]}
           strokeWidth={2}
           strokeDasharray={WHEEL_DASHES[i] || undefined}
-          points={samples.map((s) => `${X(s.angleRad * DEG_PER_RAD).toFixed(1)},${Y(forceValue(s.loadsN[i], units)).toFixed(1)}`).join(' ')}
+          points={samples
+            .filter((s) => s.loadsN[i] !== null)
+            .map((s) => `${X(radToDeg(s.angleRad)).toFixed(1)},${Y(toDisplay('force', s.loadsN[i] as number, units)).toFixed(1)}`)
+            .join(' ')}
         />
       ))}
       {lift !== null ? (
@@ -90,8 +94,8 @@ export function SweepChart({ sweep, units, currentRad, width = 360, height = 210
           </text>
         </g>
       ) : null}
-      {currentRad !== undefined && currentRad * DEG_PER_RAD <= xMax ? (
-        <line x1={X(currentRad * DEG_PER_RAD)} x2={X(currentRad * DEG_PER_RAD)} y1={pad.t} y2={pad.t + H} stroke="#777" />
+      {currentRad !== undefined && radToDeg(currentRad) <= xMax ? (
+        <line x1={X(radToDeg(currentRad))} x2={X(radToDeg(currentRad))} y1={pad.t} y2={pad.t + H} stroke="#777" />
       ) : null}
       {WHEEL_NAMES.map((name, i) => (
         <g key={`k${name}`} transform={`translate(${pad.l + 8 + i * 48}, ${pad.t + H - 10})`}>

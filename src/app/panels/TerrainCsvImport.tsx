@@ -1,8 +1,8 @@
 import { useState } from 'react';
-import { parseScenario, scenarioToFile, type Scenario, type ScenarioError } from '../../core';
+import { fromSI, parseScenario, scenarioToFile, type Scenario, type ScenarioError } from '../../core';
 import { csvPlace, gridFromCsv, profileFromCsv, type CsvError } from '../../core/scenario/csv';
-import { fieldUnit } from '../format';
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { fieldUnit } from '../../present/fields';
+import { usePlumb, usePlumbStore } from '../../store/react';
 import { NumberField } from './NumberField';
 
 type Kind = 'profile-x' | 'profile-y' | 'grid';
@@ -26,7 +26,7 @@ export function TerrainCsvImport() {
     const fail = (errors: readonly ScenarioError[]) => store.setState({ importErrors: errors, importWarnings: [] });
     const csvFail = (errs: readonly CsvError[]) => fail(errs.map((e) => ({ path: `${name} ${csvPlace(e)}`, message: e.message })));
     const file = scenarioToFile(st.scenario, st.units) as unknown as { terrain: { features: unknown[] } };
-    const fileLen = (m: number) => (st.units === 'metric' ? m : m / 0.0254);
+    const fileLen = (m: number) => fromSI('length', m, st.units);
     let feature: Record<string, unknown>;
     let what: string;
     if (kind === 'grid') {

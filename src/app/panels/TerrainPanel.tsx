@@ -1,7 +1,7 @@
 import type { Scenario, TerrainFeature } from '../../core';
 import { validate, type FieldSpec } from '../edit';
 import { PRESETS, presetFeatures } from '../presets';
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { usePlumb, usePlumbStore } from '../../store/react';
 import { SpecField } from './SpecField';
 import { TerrainCsvImport } from './TerrainCsvImport';
 

@@ -1,6 +1,7 @@
 import { useState } from 'react';
-import { angleText, downhillWords } from '../format';
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { RAD_PER_DEG, angleText, radToDeg } from '../../present/units';
+import { TILT_DATUM_NOTE, downhillWords } from '../../present/words';
+import { usePlumb, usePlumbStore } from '../../store/react';
 import { NumberField } from './NumberField';
 import { SweepChart } from './SweepChart';
 
@@ -59,7 +60,7 @@ export function TiltPanel() {
       </p>
       <div className="buttons">
         {DIRECTIONS.map(([label, d]) => (
-          <button key={d} type="button" onClick={() => store.getState().setTilt({ downhillRad: (d * Math.PI) / 180 })}>
+          <button key={d} type="button" onClick={() => store.getState().setTilt({ downhillRad: d * RAD_PER_DEG })}>
             {label}
           </button>
         ))}
@@ -88,19 +89,21 @@ export function TiltPanel() {
       </div>
       {sw && current ? (
         <div className="sweep-result">
-          <p data-testid="first-lift" data-wheel={sw.firstLift?.wheel ?? ''} data-angle-deg={sw.firstLift ? (sw.firstLift.angleRad * 180) / Math.PI : ''}>
+          <p data-testid="first-lift" data-wheel={sw.firstLift?.wheel ?? ''} data-angle-deg={sw.firstLift ? radToDeg(sw.firstLift.angleRad) : ''}>
             {sw.firstLift
-              ? `First lift: ${sw.firstLift.wheel} at ${angleText(sw.firstLift.angleRad, 2)} tilt, ${downhillWords(sw.downhillRad)}`
+              ? `First lift: ${sw.firstLift.wheel} at ${angleText(sw.firstLift.angleRad)} tilt from level, ${downhillWords(sw.downhillRad)}`
               : 'No wheel lifts before the tip or 89°.'}
           </p>
           <p data-testid="tip">
             {sw.tip
-              ? `Tips at ${angleText(sw.tip.angleRad, 2)} over the ${sw.tip.edge.join('–')} edge.`
+              ? `Tips at ${angleText(sw.tip.angleRad)} tilt from level, over the ${sw.tip.edge.join('–')} edge.`
               : 'Does not tip up to 89°.'}
-            {sw.slide ? ` Slides (grip used up) from ${angleText(sw.slide.angleRad, 1)}.` : ''}
+            {sw.slide ? ` Slides (grip used up) from ${angleText(sw.slide.angleRad)}.` : ''}
           </p>
           <SweepChart sweep={sw} units={units} currentRad={tilt.angleRad} />
-          <p className="fineprint">Sweep took {sweep!.wallMs.toFixed(0)} ms.</p>
+          <p className="fineprint">
+            {TILT_DATUM_NOTE} Sweep took {sweep!.wallMs.toFixed(0)} ms.
+          </p>
         </div>
       ) : sweep ? (
         <p className="hint">The scenario changed since the last sweep: run it again.</p>

@@ -4,7 +4,7 @@ import { SCENARIO_LIMITS, scenarioToFile, type UnitSystem } from '../../core';
 import { shareLink, type SaveStatus } from '../../store/persist';
 import { session } from '../../store/session';
 import { createStore } from 'zustand/vanilla';
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { usePlumb, usePlumbStore } from '../../store/react';
 
 /** Stands in for the save status before the autosave starts (never changes). */
 const NO_STATUS = createStore<SaveStatus>()(() => ({ state: 'saved', where: null, rev: 0, newer: null, failure: null }));

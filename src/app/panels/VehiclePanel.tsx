@@ -1,6 +1,6 @@
 import { AXLE_FIELDS, BODY_FIELDS, PAYLOAD_FIELDS, TYRE_FIELDS, VEHICLE_FIELDS, type AxleSuspension, type NumberRow, type PayloadItem, type Scenario } from '../../core';
 import { setIn, validate, type FieldSpec, type Key } from '../edit';
-import { usePlumb, usePlumbStore } from '../storeContext';
+import { usePlumb, usePlumbStore } from '../../store/react';
 import { SpecField } from './SpecField';
 
 /**

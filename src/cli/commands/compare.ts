@@ -1,5 +1,6 @@
 /** `plumbline compare FILE...`: builds side by side (one file's builds, or one vehicle per file). */
 import {
+  AS_GIVEN,
   MAX_BUILDS,
   applyBuild,
   compareVehicles,
@@ -10,41 +11,15 @@ import {
   type Scenario,
 } from '../../core/index';
 import { EXIT_BAD_INPUT, EXIT_OK, type CommandSpec } from '../command';
-import { formatTable } from '../format';
+import { UNITS_OPTION, formatTable, outputUnits } from '../format';
 import { loadScenarioFile, toJsonText } from '../load';
-import { displayUnits } from '../solveScenario';
-import { CAUTION, deg, formatCsv, progressReporter, round } from '../analysisOutput';
-
-const RAD_PER_DEG = Math.PI / 180;
-
-type Kind = 'ratio' | 'length' | 'angle' | 'direction';
-/** Rows of the table: metric, label, kind. */
-const METRICS: readonly (readonly [MetricName, string, Kind])[] = [
-  ['ssf', 'SSF (T/2h)', 'ratio'],
-  ['cgHeightM', 'CG height with payload', 'length'],
-  ['trackMeanM', 'mean track', 'length'],
-  ['noseDownLiftRad', 'nose down: first lift', 'angle'],
-  ['noseDownTipRad', 'nose down: tip', 'angle'],
-  ['tailDownLiftRad', 'tail down: first lift', 'angle'],
-  ['tailDownTipRad', 'tail down: tip', 'angle'],
-  ['leftDownLiftRad', 'left down: first lift', 'angle'],
-  ['leftDownTipRad', 'left down: tip', 'angle'],
-  ['rightDownLiftRad', 'right down: first lift', 'angle'],
-  ['rightDownTipRad', 'right down: tip', 'angle'],
-  ['weakestDownhillRad', 'weakest direction', 'direction'],
-  ['weakestTipRad', 'weakest direction: tip', 'angle'],
-  ['passFirstUnloadM', 'pass: first wheel light at', 'length'],
-  ['passFirstLiftM', 'pass: first lift at', 'length'],
-  ['passTipM', 'pass: tips at', 'length'],
-  ['passMinForceAngleRad', 'pass: smallest force-angle', 'angle'],
-  ['passMinEnergyM', 'pass: energy margin there', 'length'],
-  ['passMinClearanceM', 'pass: least clearance', 'length'],
-];
+import { deg, formatCsv, progressReporter, round } from '../analysisOutput';
+import { BUILD_METRICS, METRICS_NOTE, metricJsonKey, metricUnit, metricValue } from '../../present/metrics';
+import { RAD_PER_DEG, angleText, lengthText, valueText } from '../../present/units';
+import { QUASI_STATIC_CAUTION, buildChangeWords } from '../../present/words';
 
 /** JSON value of one metric: degrees for angles, metres for lengths; key carries the unit. */
-function jsonKey(name: MetricName): string {
-  return name.endsWith('Rad') ? `${name.slice(0, -3)}Deg` : name;
-}
+const jsonKey = metricJsonKey;
 function jsonValue(name: MetricName, v: number | null): number | null {
   return name.endsWith('Rad') ? deg(v) : round(v, 5);
 }
@@ -53,9 +28,10 @@ export function compareJson(rows: readonly BuildRow[]): object {
   return {
     builds: rows.map((r) => ({
       name: r.name,
-      changes: r.changes,
-      values: Object.fromEntries(METRICS.map(([k]) => [jsonKey(k), jsonValue(k, r.metrics[k])])),
-      changeFromFirst: Object.fromEntries(METRICS.map(([k]) => [jsonKey(k), jsonValue(k, r.change[k])])),
+      // Words in the file's metric form (SI numbers are in the table); the human table uses --units.
+      changes: r.changes.map((c) => buildChangeWords(c, 'metric')),
+      values: Object.fromEntries(BUILD_METRICS.map(({ key: k }) => [jsonKey(k), jsonValue(k, r.metrics[k])])),
+      changeFromFirst: Object.fromEntries(BUILD_METRICS.map(({ key: k }) => [jsonKey(k), jsonValue(k, r.change[k])])),
       passFirstUnloadWheel: r.passFirstUnloadWheel,
       passFirstLiftWheel: r.passFirstLiftWheel,
       cgBand: r.band
@@ -90,6 +66,7 @@ export const compareCommand: CommandSpec = {
     { name: 'json', kind: 'flag', description: 'print one JSON object (metres, degrees)' },
     { name: 'csv', kind: 'flag', description: 'print one CSV row per build and metric' },
     { name: 'quiet', kind: 'flag', description: 'no progress lines on stderr' },
+    UNITS_OPTION,
   ],
   run(args, io) {
     const scenarios: Scenario[] = [];
@@ -103,7 +80,7 @@ export const compareCommand: CommandSpec = {
     if (scenarios.length === 1) {
       const builds = first.builds ?? [];
       applied = [
-        ...(args.options['no-base'] ? [] : [{ name: 'as given', vehicle: first.vehicle, changes: ['as given'] }]),
+        ...(args.options['no-base'] ? [] : [{ name: 'as given', vehicle: first.vehicle, changes: AS_GIVEN }]),
         ...builds.map((b) => applyBuild(first.vehicle, b)),
       ];
       if (applied.length === 0) {
@@ -111,7 +88,7 @@ export const compareCommand: CommandSpec = {
         return EXIT_BAD_INPUT;
       }
     } else {
-      applied = scenarios.map((s, i) => ({ name: `${args.positionals[i]}: ${s.vehicle.name}`, vehicle: s.vehicle, changes: ['as given'] }));
+      applied = scenarios.map((s, i) => ({ name: `${args.positionals[i]}: ${s.vehicle.name}`, vehicle: s.vehicle, changes: AS_GIVEN }));
     }
     if (applied.length > MAX_BUILDS) {
       io.err(`compare: at most ${MAX_BUILDS} columns, got ${applied.length}${scenarios.length === 1 && !args.options['no-base'] ? ' (the vehicle as given counts; --no-base leaves it out)' : ''}`);
@@ -141,42 +118,41 @@ export const compareCommand: CommandSpec = {
     }
     if (args.options.csv) {
       const out: (string | number | null)[][] = [];
-      for (const r of rows) for (const [k] of METRICS) out.push([r.name, jsonKey(k), jsonValue(k, r.metrics[k]), jsonValue(k, r.change[k])]);
+      for (const r of rows) for (const { key: k } of BUILD_METRICS) out.push([r.name, jsonKey(k), jsonValue(k, r.metrics[k]), jsonValue(k, r.change[k])]);
       io.out(formatCsv(['build', 'metric', 'value', 'change_from_first'], out));
       return EXIT_OK;
     }
-    const u = displayUnits(first.units);
-    const cell = (kind: Kind, v: number | null, dv: number | null, isFirst: boolean): string => {
-      if (v === null) return '–';
-      const fmt = (x: number, sign: boolean) => {
-        const s = kind === 'ratio' ? x.toFixed(3) : kind === 'length' ? u.lengthOf(x).toFixed(first.units === 'imperial' ? 1 : 3) : (x / RAD_PER_DEG).toFixed(1);
-        return sign && x >= 0 ? `+${s}` : s;
-      };
-      if (kind === 'direction') return `${(v / RAD_PER_DEG).toFixed(0)}°`;
-      return isFirst || dv === null ? fmt(v, false) : `${fmt(v, false)} (${fmt(dv, true)})`;
-    };
-    const unitOf = (k: Kind) => (k === 'length' ? u.length : k === 'angle' ? '°' : '');
+    const u = outputUnits(args.options, first.units);
     io.out(`${first.name}: ${rows.length} builds; change from "${rows[0].name}" in brackets`);
     io.out(
       formatTable(
-        [{ header: 'quantity' }, { header: 'unit' }, ...rows.map((r, i) => ({ header: `[${i + 1}]`, align: 'right' as const }))],
-        METRICS.map(([k, label, kind]) => [label, unitOf(kind), ...rows.map((r, i) => cell(kind, r.metrics[k], r.change[k], i === 0))]),
+        [{ header: 'quantity' }, { header: 'unit' }, ...rows.map((_, i) => ({ header: `[${i + 1}]`, align: 'right' as const }))],
+        BUILD_METRICS.map((m) => [
+          m.label,
+          metricUnit(m.kind, u),
+          ...rows.map((r, i) =>
+            i === 0 || r.change[m.key] === null || m.kind === 'direction'
+              ? metricValue(m.kind, r.metrics[m.key], u)
+              : `${metricValue(m.kind, r.metrics[m.key], u)} (${metricValue(m.kind, r.change[m.key], u, true)})`,
+          ),
+        ]),
       ),
     );
+    io.out(METRICS_NOTE);
     io.out('');
     rows.forEach((r, i) => {
       io.out(`[${i + 1}] ${r.name}`);
-      for (const c of r.changes) io.out(`    ${c}`);
+      for (const c of r.changes) io.out(`    ${buildChangeWords(c, u)}`);
       if (r.band) {
         const b = r.band.directions;
-        const span = (x: readonly [number, number]) => `${(x[0] / RAD_PER_DEG).toFixed(1)}–${(x[1] / RAD_PER_DEG).toFixed(1)}°`;
+        const span = (x: readonly [number, number]) => `${valueText('angle', x[0], u)}–${angleText(x[1])}`;
         io.out(
-          `    CG height ±${u.lengthOf(r.band.toleranceM).toFixed(3)} ${u.length}: tip nose ${span(b.noseDown.tipRad)}, tail ${span(b.tailDown.tipRad)}, left ${span(b.leftDown.tipRad)}, right ${span(b.rightDown.tipRad)}`,
+          `    CG height ±${lengthText(r.band.toleranceM, u)}: tip (from level) nose ${span(b.noseDown.tipRad)}, tail ${span(b.tailDown.tipRad)}, left ${span(b.leftDown.tipRad)}, right ${span(b.rightDown.tipRad)}`,
         );
       }
     });
     io.out('');
-    io.out(CAUTION);
+    io.out(QUASI_STATIC_CAUTION);
     return EXIT_OK;
   },
 };

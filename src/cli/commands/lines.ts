@@ -1,13 +1,12 @@
 /** `plumbline lines FILE --offset FROM:TO:STEP --heading FROM:TO:STEP`: sweep lines, rank by smallest margin. */
 import { makeLines, rangeCount, rankLines, toSI, type LineSummary } from '../../core/index';
 import { EXIT_BAD_INPUT, EXIT_OK, type CommandSpec } from '../command';
-import { formatKeyValues, formatTable } from '../format';
+import { UNITS_OPTION, formatKeyValues, formatTable, outputUnits, quantityColumn } from '../format';
 import { loadScenarioFile, toJsonText } from '../load';
-import { displayUnits } from '../solveScenario';
 import { LONG_JOB_S, capWorkers, estimateSweepSeconds, runLinesParallel } from '../parallel';
-import { CAUTION, deg, formatCsv, parseRange, progressReporter, round } from '../analysisOutput';
-
-const RAD_PER_DEG = Math.PI / 180;
+import { deg, formatCsv, parseRange, progressReporter, round } from '../analysisOutput';
+import { NO_VALUE, RAD_PER_DEG, angleText, changeText, distanceText, valueText } from '../../present/units';
+import { QUASI_STATIC_CAUTION } from '../../present/words';
 /** Most lines in one sweep. */
 const MAX_LINES = 5000;
 
@@ -48,6 +47,7 @@ export const linesCommand: CommandSpec = {
     { name: 'csv', kind: 'flag', description: 'print one CSV row per line, best first' },
     { name: 'quiet', kind: 'flag', description: 'no progress lines on stderr' },
     { name: 'yes', kind: 'flag', description: 'run a sweep estimated to take more than an hour' },
+    UNITS_OPTION,
   ],
   async run(args, io) {
     const file = args.positionals[0];
@@ -127,9 +127,9 @@ export const linesCommand: CommandSpec = {
         ),
       );
     } else {
-      const u = displayUnits(s.units);
+      const u = outputUnits(args.options, s.units);
       const describe = (l: LineSummary) =>
-        `offset ${u.lengthOf(l.offsetM).toFixed(2)} ${u.length}, heading ${deg(l.headingChangeRad, 1)}°: smallest force-angle ${deg(l.minForceAngleRad, 1)}°${l.tip ? `, tips at ${u.lengthOf(l.tip.distanceM).toFixed(2)} ${u.length}` : ''}`;
+        `offset ${changeText('distance', l.offsetM, u)}, heading ${changeText('angle', l.headingChangeRad, u)}: smallest force-angle margin ${angleText(l.minForceAngleRad)}${l.tip ? `, tips at ${distanceText(l.tip.distanceM, u)}` : ''}`;
       io.out(`${s.name}: ${s.vehicle.name}, ${lines.length} lines`);
       const tie = (tied: boolean) => (tied ? ' (tied with others within 0.1°)' : '');
       io.out(formatKeyValues([['best line', describe(ranking.best) + tie(ranking.bestTied)], ['worst line', describe(ranking.worst) + tie(ranking.worstTied)]]));
@@ -138,28 +138,28 @@ export const linesCommand: CommandSpec = {
         formatTable(
           [
             { header: 'rank', digits: 0 },
-            { header: 'offset', unit: u.length, digits: 2 },
-            { header: 'heading', unit: '°', digits: 1 },
-            { header: 'min force-angle', unit: '°', digits: 1 },
-            { header: 'at', unit: u.length, digits: 2 },
-            { header: 'clearance', unit: u.length, digits: 2 },
+            quantityColumn('offset', 'distance', u),
+            { header: 'heading', unit: '°', align: 'right' },
+            { header: 'min force-angle', unit: '°', align: 'right' },
+            quantityColumn('at', 'distance', u),
+            quantityColumn('underbody gap', 'short', u),
             { header: 'goes light' },
-            { header: 'tip at', unit: u.length, digits: 2 },
+            quantityColumn('tip at', 'distance', u),
           ],
           ranking.ranked.map((l, i) => [
             ranking.rank[i],
-            u.lengthOf(l.offsetM),
-            deg(l.headingChangeRad),
-            deg(l.minForceAngleRad),
-            u.lengthOf(l.minMarginDistanceM),
-            u.lengthOf(l.minClearanceM),
-            l.firstUnload ? `${l.firstUnload.wheel} at ${u.lengthOf(l.firstUnload.distanceM).toFixed(2)}` : '',
-            l.tip ? u.lengthOf(l.tip.distanceM) : null,
+            changeText('distance', l.offsetM, u, false),
+            changeText('angle', l.headingChangeRad, u, false),
+            valueText('angle', l.minForceAngleRad, u),
+            valueText('distance', l.minMarginDistanceM, u),
+            valueText('short', l.minClearanceM, u),
+            l.firstUnload ? `${l.firstUnload.wheel} at ${distanceText(l.firstUnload.distanceM, u)}` : '',
+            l.tip ? valueText('distance', l.tip.distanceM, u) : NO_VALUE,
           ]),
         ),
       );
       io.out('');
-      io.out(CAUTION);
+      io.out(QUASI_STATIC_CAUTION);
     }
     return EXIT_OK;
   },

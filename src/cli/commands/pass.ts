@@ -1,10 +1,12 @@
 /** `plumbline pass FILE`: crawl the scenario's path station by station; events and the headline. */
 import { WHEEL_NAMES, runPass, type PassResult, type Scenario } from '../../core/index';
 import { EXIT_BAD_INPUT, EXIT_FAILURE, EXIT_OK, type CliIO, type CommandSpec } from '../command';
-import { formatKeyValues, formatTable } from '../format';
+import { UNITS_OPTION, formatKeyValues, formatTable, outputUnits, quantityColumn } from '../format';
 import { loadScenarioFile, toJsonText } from '../load';
-import { displayUnits, modelOf } from '../solveScenario';
-import { CAUTION, deg, formatCsv, progressReporter, round } from '../analysisOutput';
+import { modelOf } from '../solveScenario';
+import { deg, formatCsv, progressReporter, round } from '../analysisOutput';
+import { NO_VALUE, angleText, distanceText, percentText, shortText, valueText, type UnitSystem } from '../../present/units';
+import { QUASI_STATIC_CAUTION, eventWhat, partWords, passHeadline } from '../../present/words';
 
 /** Stations from which a pass reports progress on stderr. */
 const PROGRESS_FROM_STATIONS = 500;
@@ -73,23 +75,23 @@ export function passCsv(r: PassResult): string {
   return formatCsv(header, rows);
 }
 
-function printText(s: Scenario, r: PassResult, io: CliIO, withStations: boolean): void {
-  const u = displayUnits(s.units);
-  const len = (m: number) => `${u.lengthOf(m).toFixed(s.units === 'imperial' ? 1 : 2)} ${u.length}`;
-  const at = (x: { distanceM: number; station: number }) => `at ${len(x.distanceM)} (station ${x.station})`;
-  io.out(`${s.name}: ${s.vehicle.name}, ${r.stations.length} of ${r.plannedStations} stations every ${len(r.path.stepM)}`);
+function printText(s: Scenario, r: PassResult, io: CliIO, withStations: boolean, u: UnitSystem): void {
+  const at = (x: { distanceM: number; station: number }) => `at ${distanceText(x.distanceM, u)} (station ${x.station})`;
+  io.out(`${s.name}: ${s.vehicle.name}, ${r.stations.length} of ${r.plannedStations} stations every ${distanceText(r.path.stepM, u)}`);
+  io.out(passHeadline(r, u));
+  io.out('');
   io.out(
     formatKeyValues([
-      ['first wheel to go light', r.firstUnload ? `${r.firstUnload.wheel} ${at(r.firstUnload)} (below ${Math.round(r.lightShare * 100)} % of its level load)` : 'none'],
+      ['first wheel to go light', r.firstUnload ? `${r.firstUnload.wheel} ${at(r.firstUnload)} (below ${percentText(r.lightShare)} of static)` : 'none'],
       ['first wheel to lift', r.firstLift ? `${r.firstLift.wheel} ${at(r.firstLift)}` : 'none'],
       ['tip', r.tip ? `${at(r.tip)}: ${r.tip.reason}; the pass stops there` : 'none'],
       [
         'smallest margin',
-        r.minMargin ? `force-angle ${deg(r.minMargin.forceAngleRad, 1)}°, energy ${len(r.minMargin.energyM)} ${at(r.minMargin)}` : '–',
+        r.minMargin ? `force-angle ${angleText(r.minMargin.forceAngleRad)}, energy (CG rise to tip) ${shortText(r.minMargin.energyM, u)} ${at(r.minMargin)}` : NO_VALUE,
       ],
       [
-        'least underbody clearance',
-        r.minClearance ? `${len(r.minClearance.clearanceM)} under the ${r.minClearance.part} ${at(r.minClearance)}${r.minClearance.clearanceM <= 0 ? ' (contact)' : ''}` : '–',
+        'least underbody gap',
+        r.minClearance ? `${shortText(r.minClearance.clearanceM, u)} under the ${partWords(r.minClearance.part)} ${at(r.minClearance)}${r.minClearance.clearanceM <= 0 ? ' (contact)' : ''}` : NO_VALUE,
       ],
     ]),
   );
@@ -101,8 +103,8 @@ function printText(s: Scenario, r: PassResult, io: CliIO, withStations: boolean)
   else {
     io.out(
       formatTable(
-        [{ header: 'event' }, { header: 'where' }, { header: 'from', unit: u.length, digits: 2 }, { header: 'to', unit: u.length, digits: 2 }],
-        r.events.map((e) => [e.kind, e.wheel ?? e.part ?? '', u.lengthOf(e.startDistanceM), e.endDistanceM === null ? 'end' : u.lengthOf(e.endDistanceM)]),
+        [{ header: 'event' }, quantityColumn('from', 'distance', u), quantityColumn('to', 'distance', u)],
+        r.events.map((e) => [eventWhat(e), valueText('distance', e.startDistanceM, u), e.endDistanceM === null ? (e.kind === 'tip' ? NO_VALUE : 'end') : valueText('distance', e.endDistanceM, u)]),
       ),
     );
   }
@@ -111,27 +113,28 @@ function printText(s: Scenario, r: PassResult, io: CliIO, withStations: boolean)
     io.out(
       formatTable(
         [
-          { header: 'at', unit: u.length, digits: 2 },
-          ...WHEEL_NAMES.map((w) => ({ header: w, unit: u.force, digits: 0 })),
-          { header: 'roll', unit: '°', digits: 1 },
-          { header: 'pitch', unit: '°', digits: 1 },
-          { header: 'force-angle', unit: '°', digits: 1 },
-          { header: 'clearance', unit: u.length, digits: 2 },
+          quantityColumn('at', 'distance', u),
+          ...WHEEL_NAMES.map((w) => quantityColumn(w, 'force', u)),
+          { header: 'roll', unit: '°', align: 'right' as const },
+          { header: 'pitch', unit: '°', align: 'right' as const },
+          { header: 'force-angle', unit: '°', align: 'right' as const },
+          quantityColumn('gap', 'short', u),
         ],
         r.stations.map((st) => [
-          u.lengthOf(st.distanceM),
-          ...st.wheels.map((w) => u.forceOf(w.loadN)),
-          deg(st.rollRad, 2),
-          deg(st.pitchRad, 2),
-          deg(st.forceAngleRad, 2),
-          u.lengthOf(st.clearanceM),
+          valueText('distance', st.distanceM, u),
+          ...st.wheels.map((w) => valueText('force', w.loadN as number | null, u)),
+          valueText('angle', st.rollRad, u),
+          valueText('angle', st.pitchRad, u),
+          valueText('angle', st.forceAngleRad, u),
+          valueText('short', st.clearanceM, u),
         ]),
       ),
     );
+    io.out('Loads are normal loads (across the contact); roll and pitch from level.');
   }
   io.out('');
-  io.out('Clearance: the body is a box (belly, overhangs) and the axles their centre-lines; the solver does not rest the body on the ground.');
-  io.out(CAUTION);
+  io.out('Underbody gap: the body is a box (belly, overhangs) and the axles their centre-lines; the solver does not rest the body on the ground.');
+  io.out(QUASI_STATIC_CAUTION);
 }
 
 export const passCommand: CommandSpec = {
@@ -148,6 +151,7 @@ export const passCommand: CommandSpec = {
     { name: 'json', kind: 'flag', description: 'print one JSON object (metres, newtons, degrees)' },
     { name: 'csv', kind: 'flag', description: 'print the stations as CSV' },
     { name: 'quiet', kind: 'flag', description: 'no progress lines on stderr' },
+    UNITS_OPTION,
   ],
   run(args, io) {
     const file = args.positionals[0];
@@ -172,7 +176,7 @@ export const passCommand: CommandSpec = {
     });
     if (args.options.json) io.out(toJsonText(passJson(r)));
     else if (args.options.csv) io.out(passCsv(r));
-    else printText(s, r, io, Boolean(args.options.stations));
+    else printText(s, r, io, Boolean(args.options.stations), outputUnits(args.options, s.units));
     if (r.stations.length > 0 && r.stations[0].status !== 'converged' && !r.stations[0].approximate) {
       io.err(`plumbline: the vehicle does not stand at the start of the path (${r.stations[0].status})`);
       return EXIT_FAILURE;

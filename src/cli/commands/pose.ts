@@ -1,9 +1,11 @@
 /** `plumbline pose FILE`: solve the scenario's pose (with its tilt) and print the tyre loads, travel and margins. */
 import { solveEquilibrium, type SolveResult } from '../../core/index';
 import { EXIT_BAD_INPUT, EXIT_FAILURE, EXIT_OK, type CommandSpec } from '../command';
-import { formatKeyValues, formatTable } from '../format';
+import { UNITS_OPTION, formatKeyValues, formatTable, outputUnits, quantityColumn } from '../format';
+import { OF_STATIC_NOTE, angleText, fixed, forceText, percentText, shortText, valueText } from '../../present/units';
+import { QUASI_STATIC_CAUTION } from '../../present/words';
 import { loadScenarioFile, toJsonText } from '../load';
-import { displayUnits, modelOf, radToDegRounded } from '../solveScenario';
+import { modelOf, radToDegRounded } from '../solveScenario';
 
 /** The documented JSON form of a pose result: SI, angles in degrees, units in the key names. */
 export function poseJson(r: SolveResult): object {
@@ -64,7 +66,7 @@ export const poseCommand: CommandSpec = {
     'Quasi-static estimate: real margins are smaller (bounce, momentum, soft ground, driver input).\n' +
     'Exit 0 when it stands, 1 when it tips, loses contact or the solver does not converge (the result is still printed).',
   args: [{ name: 'FILE', description: 'scenario file (JSON)' }],
-  options: [{ name: 'json', kind: 'flag', description: 'print one JSON object (SI units, angles in degrees)' }],
+  options: [{ name: 'json', kind: 'flag', description: 'print one JSON object (SI units, angles in degrees)' }, UNITS_OPTION],
   run(args, io) {
     const file = args.positionals[0];
     const loaded = loadScenarioFile(file, io);
@@ -74,7 +76,7 @@ export const poseCommand: CommandSpec = {
     const r = solveEquilibrium(model, s.pose, { tilt: s.tilt, friction: s.friction });
     if (args.options.json) io.out(toJsonText(poseJson(r)));
     else {
-      const u = displayUnits(s.units);
+      const u = outputUnits(args.options, s.units);
       io.out(`${s.name}: ${s.vehicle.name}`);
       if (!r.standing) {
         // No load table: the numbers of a pose that does not stand belong to no equilibrium.
@@ -85,47 +87,49 @@ export const poseCommand: CommandSpec = {
           formatTable(
             [
               { header: 'wheel' },
-              { header: 'load', unit: u.force, digits: 0 },
-              { header: 'of static', unit: '%', digits: 0 },
-              { header: 'travel', unit: u.length, digits: 3 },
-              { header: 'travel used', unit: '%', digits: 0 },
-              { header: 'grip needed', unit: 'μ', digits: 2 },
+              quantityColumn('normal load', 'force', u),
+              { header: 'of static', unit: '%', align: 'right' },
+              quantityColumn('travel', 'short', u),
+              { header: 'travel used', unit: '%', align: 'right' },
+              { header: 'grip needed', unit: 'μ', align: 'right' },
               { header: 'state' },
             ],
             r.wheels.map((w) => {
-              const demand = w.frictionDemand ?? 0;
-              const share = w.loadShare ?? 0;
+              const load = w.loadN;
+              const share = w.loadShare;
+              const grip = w.frictionDemand;
               return [
                 w.name,
-                u.forceOf(w.loadN ?? 0),
-                100 * share,
-                u.lengthOf(w.travelM ?? 0),
-                100 * (w.travelFraction ?? 0),
-                demand,
-                w.lifted ? 'LIFTED' : demand > s.friction ? 'SLIDES' : share < 0.25 ? 'light' : '',
+                valueText('force', load, u),
+                percentText(share).replace(' %', ''),
+                valueText('short', w.travelM, u),
+                w.travelFraction === null ? '—' : fixed(100 * w.travelFraction, 0),
+                grip === null ? '—' : fixed(grip, 2),
+                w.lifted ? 'LIFTED' : grip !== null && grip > s.friction ? 'SLIDES' : share !== null && share < 0.25 ? 'light' : '',
               ];
             }),
           ),
         );
+        io.out(OF_STATIC_NOTE);
       }
       io.out('');
       io.out(
         formatKeyValues([
           ['status', `${r.status} (${r.reason})`],
-          ['weight', `${u.forceOf(r.weightN).toFixed(0)} ${u.force}`],
+          ['weight', forceText(r.weightN, u)],
           // Attitude and margins only of a pose that stands (elsewhere they describe no equilibrium).
           ...(r.standing
             ? ([
-                ['body roll / pitch to level', `${radToDegRounded(r.body.rollToLevelRad, 2)}° / ${radToDegRounded(r.body.pitchToLevelRad, 2)}°`],
-                ['force-angle margin', `${radToDegRounded(r.margins.forceAngleRad, 2)}° (weakest edge ${r.margins.weakestEdgeWheels.join('–') || 'none'})`],
-                ['energy margin', `${u.lengthOf(r.margins.energyM).toFixed(3)} ${u.length}`],
-                ['static margin', `${u.lengthOf(r.margins.staticM).toFixed(3)} ${u.length}`],
+                ['body roll / pitch from level', `${angleText(r.body.rollToLevelRad)} / ${angleText(r.body.pitchToLevelRad)}`],
+                ['force-angle margin', `${angleText(r.margins.forceAngleRad)} (weakest edge ${r.margins.weakestEdgeWheels.join('–') || 'none'})`],
+                ['energy margin', `${shortText(r.margins.energyM, u)} (CG rise to tip)`],
+                ['static margin', `${shortText(r.margins.staticM, u)} (plumb point inside the support)`],
               ] as [string, string][])
             : []),
         ]),
       );
       io.out('');
-      io.out('Caution: a quasi-static estimate on rigid ground. Real margins are smaller; follow the maker\'s limits, local rules and trained practice.');
+      io.out(QUASI_STATIC_CAUTION);
     }
     if (!r.standing) {
       io.err(`plumbline: the vehicle does not stand at this pose: ${r.status} (${r.reason})`);

@@ -2,7 +2,9 @@
 import { readFileSync, writeFileSync } from 'node:fs';
 import { basename, dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { collectReport, renderReportHtml } from '../../core/index';
+import { toSI } from '../../core/index';
+import { collectReport, renderReportHtml } from '../../report/index';
+import { parseUnits } from '../../present/units';
 import { EXIT_BAD_INPUT, EXIT_FAILURE, EXIT_OK, type CommandSpec } from '../command';
 import { loadScenarioFile } from '../load';
 
@@ -34,6 +36,7 @@ export const reportCommand: CommandSpec = {
   options: [
     { name: 'output', short: 'o', kind: 'string', valueName: 'FILE', description: 'where to write the HTML (default: stdout)' },
     { name: 'cg-tolerance', kind: 'number', valueName: 'M', description: 'CG-height uncertainty (m, or in for an imperial file) for the band of lift and tip angles' },
+    { name: 'units', kind: 'string', choices: ['metric', 'imperial'], valueName: 'metric|imperial', description: 'units the report is written in (default: the scenario file\'s)' },
     { name: 'date', kind: 'string', valueName: 'YYYY-MM-DD', description: 'date printed on the report (default: today)' },
   ],
   run(args, io) {
@@ -48,14 +51,15 @@ export const reportCommand: CommandSpec = {
         io.err(`plumbline: --cg-tolerance: must be > 0, got ${tol}`);
         return EXIT_BAD_INPUT;
       }
-      // In the file's length unit (1 in = 0.0254 m).
-      cgToleranceM = s.units === 'imperial' ? tol * 0.0254 : tol;
+      // In the file's length unit.
+      cgToleranceM = toSI('length', tol, s.units);
     }
     const data = collectReport(s, { cgToleranceM, builds: s.builds });
     const html = renderReportHtml(data, {
       toolVersion: toolVersion(),
       dateText: typeof args.options.date === 'string' ? args.options.date : todayText(),
       fileName: basename(file),
+      units: parseUnits(args.options.units as string | undefined) ?? s.units,
     });
     const out = args.options.output;
     if (typeof out === 'string' && out !== '-') {

@@ -1,12 +1,13 @@
 /** `plumbline rose FILE`: tilt-table lift and tip angles for downhill directions all round the vehicle. */
 import { buildModel, stabilityRose, type RoseDirection, type RoseResult } from '../../core/index';
+import { RAD_PER_DEG } from '../../present/units';
+import { QUASI_STATIC_CAUTION } from '../../present/words';
 import { EXIT_BAD_INPUT, EXIT_OK, type CommandSpec } from '../command';
 import { formatKeyValues, formatTable } from '../format';
 import { loadScenarioFile, toJsonText } from '../load';
-import { CAUTION, deg, formatCsv, progressReporter } from '../analysisOutput';
+import { deg, formatCsv, progressReporter } from '../analysisOutput';
 import { angleWords } from './tilt';
 
-const RAD_PER_DEG = Math.PI / 180;
 
 /** The table tilt, the slope from level and the tilt beyond the ground here (degrees). */
 function datums(e: { angleRad: number; fromLevelRad: number; beyondGroundRad: number }) {
@@ -130,7 +131,7 @@ export const roseCommand: CommandSpec = {
       io.out('(edge changes): the tip edge differs from the direction before, so the tip angle may change quickly there.');
       io.out('(soft): the stance is nearly neutral before the tip; see --json tip.softFrom for where that begins.');
       io.out('');
-      io.out(CAUTION);
+      io.out(QUASI_STATIC_CAUTION);
     }
     return EXIT_OK;
   },

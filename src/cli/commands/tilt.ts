@@ -1,9 +1,11 @@
 /** `plumbline tilt FILE`: tilt-table sweep about one downhill direction to the first lift, slide and tip. */
 import { tiltSweep, type TiltAngle, type TiltSweepDetail } from '../../core/index';
 import { EXIT_BAD_INPUT, EXIT_FAILURE, EXIT_OK, type CommandSpec } from '../command';
-import { formatKeyValues, formatTable } from '../format';
+import { UNITS_OPTION, formatKeyValues, formatTable, outputUnits, quantityColumn } from '../format';
+import { directionText, fixed, valueText } from '../../present/units';
+import { QUASI_STATIC_CAUTION, TILT_DATUM_NOTE, downhillWords } from '../../present/words';
 import { loadScenarioFile, toJsonText } from '../load';
-import { displayUnits, modelOf, parseDownhill, radToDegRounded } from '../solveScenario';
+import { modelOf, parseDownhill, radToDegRounded } from '../solveScenario';
 
 /** An angle's datums for JSON: the table tilt, the slope from level, the tilt beyond the ground here. */
 function datumsJson(e: TiltAngle): object {
@@ -62,6 +64,7 @@ export const tiltCommand: CommandSpec = {
   options: [
     { name: 'downhill', kind: 'string', valueName: 'DIR', description: 'downhill direction, degrees or front|left|rear|right (default: the scenario tilt\'s)' },
     { name: 'json', kind: 'flag', description: 'print one JSON object (SI units, angles in degrees)' },
+    UNITS_OPTION,
   ],
   run(args, io) {
     const file = args.positionals[0];
@@ -81,8 +84,8 @@ export const tiltCommand: CommandSpec = {
     const r = tiltSweep(model, s.pose, { downhillRad, startAngleRad: s.tilt.angleRad, friction: s.friction });
     if (args.options.json) io.out(toJsonText(tiltJson(r)));
     else {
-      const u = displayUnits(s.units);
-      io.out(`${s.name}: ${s.vehicle.name}, downhill ${radToDegRounded(downhillRad, 1)}°`);
+      const u = outputUnits(args.options, s.units);
+      io.out(`${s.name}: ${s.vehicle.name}, downhill ${directionText(downhillRad)} (${downhillWords(downhillRad)})`);
       io.out(
         formatKeyValues([
           ['first wheel to lift', r.firstLift ? `${r.firstLift.wheel} at ${angleWords(r.firstLift)}${r.firstLift.atTip ? ', as it goes over' : ''}` : 'none before the tip'],
@@ -100,24 +103,25 @@ export const tiltCommand: CommandSpec = {
       io.out(
         formatTable(
           [
-            { header: 'tilt beyond the ground here', unit: '°', digits: 1 },
-            { header: 'FL', unit: u.force, digits: 0 },
-            { header: 'FR', unit: u.force, digits: 0 },
-            { header: 'RL', unit: u.force, digits: 0 },
-            { header: 'RR', unit: u.force, digits: 0 },
-            { header: 'force-angle', unit: '°', digits: 1 },
-            { header: 'grip needed', unit: 'μ', digits: 2 },
+            { header: 'tilt beyond the ground here', unit: '°', align: 'right' },
+            quantityColumn('FL', 'force', u),
+            quantityColumn('FR', 'force', u),
+            quantityColumn('RL', 'force', u),
+            quantityColumn('RR', 'force', u),
+            { header: 'force-angle', unit: '°', align: 'right' },
+            { header: 'grip needed', unit: 'μ', align: 'right' },
           ],
           r.samples.map((p) => [
-            ((p.angleRad - r.startAngleRad) * 180) / Math.PI,
-            ...p.loadsN.map((n) => u.forceOf(n)),
-            (p.forceAngleRad * 180) / Math.PI,
-            p.frictionDemand,
+            valueText('angle', p.angleRad - r.startAngleRad, u),
+            ...p.loadsN.map((n) => valueText('force', n as number | null, u)),
+            valueText('angle', p.forceAngleRad, u),
+            (p.frictionDemand as number | null) === null ? '—' : fixed(p.frictionDemand, 2),
           ]),
         ),
       );
       io.out('');
-      io.out('Caution: quasi-static estimate on a rigid table. Real margins are smaller; keep well inside these limits.');
+      io.out('Loads are normal loads (across the contact). ' + TILT_DATUM_NOTE);
+      io.out(QUASI_STATIC_CAUTION);
     }
     if (r.samples.length === 0 || r.samples[0].status !== 'converged') {
       io.err(`plumbline: the vehicle does not stand at the starting tilt (${r.samples[0]?.status ?? 'no result'})`);

@@ -28,11 +28,12 @@
  */
 import type { AxleSuspension, PathSpec, PayloadItem, Pose, Terrain, Vehicle, WheelName } from '../model/types';
 import { buildModel } from '../solver/equilibrium';
+import { M_PER_IN } from '../scenario/units';
 import { runPass } from './pass';
 import { CARDINALS, cardinalLimits, stabilityRose, tipAngleOf, liftAngleOf, type CardinalLimits, type CardinalName } from './rose';
 
 /** Overall wheel width over the rim width (common practice: 1 in, for the bead flanges). */
-export const WHEEL_WIDTH_OVER_RIM_M = 0.0254;
+export const WHEEL_WIDTH_OVER_RIM_M = M_PER_IN;
 /** Body share of the sprung mass for a body lift. @default 0.35 (estimate, from memory) */
 export const DEFAULT_BODY_MASS_SHARE = 0.35;
 /** Most builds compared at once. */
@@ -109,19 +110,41 @@ export function trackChangeM(w: BuildWheels): number {
   return 2 * perSide;
 }
 
+/**
+ * One modification as modelled, with the physical change it made, in SI numbers (the faces word
+ * it in the reader's units: src/present/words.ts buildChangeWords).
+ */
+export type BuildChange =
+  | { readonly kind: 'as-given' }
+  | { readonly kind: 'tyres'; readonly radiusM: number; readonly riseM: number }
+  | { readonly kind: 'suspension-lift'; readonly liftM: number; readonly sprungMassKg: number; readonly massKg: number; readonly cgRiseM: number }
+  | { readonly kind: 'body-lift'; readonly liftM: number; readonly bodyShare: number; readonly bodyMassKg: number; readonly cgRiseM: number }
+  | {
+      readonly kind: 'wheels';
+      readonly axle: 'front' | 'rear' | 'both';
+      readonly rimWidthM: number | null;
+      readonly offsetM: number | null;
+      readonly stockOffsetM: number | null;
+      readonly spacerM: number | null;
+      readonly trackChangeM: number;
+    }
+  | { readonly kind: 'payload'; readonly labels: readonly string[]; readonly massKg: number }
+  | { readonly kind: 'anti-roll'; readonly end: 'front' | 'rear'; readonly stiffnessNmPerRad: number | null }
+  | { readonly kind: 'travel'; readonly end: 'front' | 'rear'; readonly bumpM: number; readonly droopM: number };
+
+export const AS_GIVEN: readonly BuildChange[] = [{ kind: 'as-given' }];
+
 export interface AppliedBuild {
   readonly name: string;
   readonly vehicle: Vehicle;
-  /** Each modification in words, with the physical change it made. */
-  readonly changes: string[];
+  /** Each modification, with the physical change it made (numbers; worded by the faces). */
+  readonly changes: readonly BuildChange[];
 }
-
-const mm = (m: number) => `${(m * 1000).toFixed(0)} mm`;
 
 /** The base vehicle with the build's modifications applied (the inputs are not changed). */
 export function applyBuild(base: Vehicle, build: BuildSpec): AppliedBuild {
   let v: Vehicle = base;
-  const changes: string[] = [];
+  const changes: BuildChange[] = [];
   const unsprung = () => v.unsprungMassFrontKg + v.unsprungMassRearKg;
   const raise = (dz: number, what: { payload: boolean; belly: boolean; roof: boolean; rollCentres: boolean }) => {
     v = {
@@ -151,7 +174,7 @@ export function applyBuild(base: Vehicle, build: BuildSpec): AppliedBuild {
     });
     v = { ...v, tyreFront: tyre(v.tyreFront), tyreRear: tyre(v.tyreRear), cg: { ...v.cg, heightM: v.cg.heightM + d } };
     raise(d, { payload: true, belly: true, roof: true, rollCentres: true });
-    changes.push(`tyres: radius ${mm(t.radiusM)}; everything rides ${mm(d)} higher (CG, payload, body, roll centres)`);
+    changes.push({ kind: 'tyres', radiusM: t.radiusM, riseM: d });
   }
   const lift = build.lift;
   if (lift?.suspensionM) {
@@ -160,9 +183,7 @@ export function applyBuild(base: Vehicle, build: BuildSpec): AppliedBuild {
     const dh = (d * ms) / v.massKg;
     v = { ...v, cg: { ...v.cg, heightM: v.cg.heightM + dh } };
     raise(d, { payload: true, belly: true, roof: true, rollCentres: false });
-    changes.push(
-      `suspension lift ${mm(d)}: sprung mass (${ms.toFixed(0)} of ${v.massKg.toFixed(0)} kg), payload and body up ${mm(d)}; CG up ${mm(dh)}; roll centres and travel kept`,
-    );
+    changes.push({ kind: 'suspension-lift', liftM: d, sprungMassKg: ms, massKg: v.massKg, cgRiseM: dh });
   }
   if (lift?.bodyM) {
     const d = lift.bodyM;
@@ -171,9 +192,7 @@ export function applyBuild(base: Vehicle, build: BuildSpec): AppliedBuild {
     const dh = (d * share * ms) / v.massKg;
     v = { ...v, cg: { ...v.cg, heightM: v.cg.heightM + dh } };
     raise(d, { payload: true, belly: false, roof: true, rollCentres: false });
-    changes.push(
-      `body lift ${mm(d)}: body taken as ${(share * 100).toFixed(0)} % of the sprung mass (${(share * ms).toFixed(0)} kg) and the payload up ${mm(d)}; frame, belly and bumpers stay; CG up ${mm(dh)}`,
-    );
+    changes.push({ kind: 'body-lift', liftM: d, bodyShare: share, bodyMassKg: share * ms, cgRiseM: dh });
   }
   if (build.wheels) {
     const w = build.wheels;
@@ -184,15 +203,20 @@ export function applyBuild(base: Vehicle, build: BuildSpec): AppliedBuild {
       trackFrontM: v.trackFrontM + (axle !== 'rear' ? dT : 0),
       trackRearM: v.trackRearM + (axle !== 'front' ? dT : 0),
     };
-    const parts: string[] = [];
-    if (w.fitted) parts.push(`wheels ${(w.fitted.rimWidthM / 0.0254).toFixed(1)} in at ${mm(offsetOf(w.fitted))} offset (stock ${mm(offsetOf(w.stock!))})`);
-    if (w.spacerM) parts.push(`spacers ${mm(w.spacerM)} per side`);
-    changes.push(`${parts.join(', ')}: ${axle === 'both' ? 'both tracks' : `${axle} track`} ${dT >= 0 ? '+' : ''}${mm(dT)}`);
+    changes.push({
+      kind: 'wheels',
+      axle,
+      rimWidthM: w.fitted ? w.fitted.rimWidthM : null,
+      offsetM: w.fitted ? offsetOf(w.fitted) : null,
+      stockOffsetM: w.fitted && w.stock ? offsetOf(w.stock) : null,
+      spacerM: w.spacerM ? w.spacerM : null,
+      trackChangeM: dT,
+    });
   }
   if (build.payload && build.payload.length > 0) {
     const kg = build.payload.reduce((s, p) => s + p.massKg, 0);
     v = { ...v, payload: [...v.payload, ...build.payload] };
-    changes.push(`payload: ${build.payload.map((p) => p.label).join(', ')} (${kg.toFixed(0)} kg)`);
+    changes.push({ kind: 'payload', labels: build.payload.map((p) => p.label), massKg: kg });
   }
   if (build.antiRoll) {
     const set = (s: AxleSuspension, x: 'disconnected' | number | undefined): AxleSuspension =>
@@ -200,7 +224,7 @@ export function applyBuild(base: Vehicle, build: BuildSpec): AppliedBuild {
     v = { ...v, suspensionFront: set(v.suspensionFront, build.antiRoll.front), suspensionRear: set(v.suspensionRear, build.antiRoll.rear) };
     for (const end of ['front', 'rear'] as const) {
       const x = build.antiRoll[end];
-      if (x !== undefined) changes.push(`${end} anti-roll bar ${x === 'disconnected' ? 'disconnected' : `${x.toFixed(0)} N·m/rad`}`);
+      if (x !== undefined) changes.push({ kind: 'anti-roll', end, stiffnessNmPerRad: x === 'disconnected' ? null : x });
     }
   }
   if (build.travel) {
@@ -211,11 +235,11 @@ export function applyBuild(base: Vehicle, build: BuildSpec): AppliedBuild {
       const t = build.travel[end];
       if (t) {
         const s = end === 'front' ? v.suspensionFront : v.suspensionRear;
-        changes.push(`${end} travel: bump ${mm(s.bumpM)}, droop ${mm(s.droopM)}`);
+        changes.push({ kind: 'travel', end, bumpM: s.bumpM, droopM: s.droopM });
       }
     }
   }
-  if (changes.length === 0) changes.push('as given');
+  if (changes.length === 0) changes.push({ kind: 'as-given' });
   return { name: build.name, vehicle: { ...v, name: `${base.name} (${build.name})` }, changes };
 }
 
@@ -262,7 +286,7 @@ export type MetricName = keyof BuildMetrics;
 
 export interface BuildRow {
   readonly name: string;
-  readonly changes: readonly string[];
+  readonly changes: readonly BuildChange[];
   readonly vehicle: Vehicle;
   readonly metrics: BuildMetrics;
   /** metrics − the first build's metrics (null where either is null). */

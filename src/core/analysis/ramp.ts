@@ -8,8 +8,8 @@ import type { Terrain, Vehicle, WheelName } from '../model/types';
 import { WHEEL_NAMES } from '../model/types';
 import { buildModel, solveEquilibrium } from '../solver/equilibrium';
 import type { SolveResult } from '../model/types';
+import { RAD_PER_DEG as DEG } from '../scenario/units';
 
-const DEG = Math.PI / 180;
 
 export interface RampTestOptions {
   /** @default 20° */

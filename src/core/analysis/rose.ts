@@ -15,8 +15,8 @@
 import type { Pose } from '../model/types';
 import { tiltSweep, type TiltAngle, type TiltLift, type TiltSweepDetail, type TiltTip } from '../solver/tilt';
 import type { VehicleModel } from '../solver/model';
+import { RAD_PER_DEG as DEG } from '../scenario/units';
 
-const DEG = Math.PI / 180;
 
 export interface RoseOptions {
   /** Spacing of the downhill directions (rad). @default 5° */

@@ -30,7 +30,7 @@ import { WHEEL_NAMES } from '../model/types';
 import { DEFAULT_FRICTION, solveEquilibrium } from './equilibrium';
 import { Q_PITCH, Q_ROLL, STATE_SIZE, type VehicleModel } from './model';
 
-const DEG = Math.PI / 180;
+import { RAD_PER_DEG as DEG } from '../scenario/fields';
 /** Largest Newton iterations of a continuation step (a warm start on the branch needs 2–5). */
 const STEP_MAX_ITERATIONS = 15;
 /** Brackets narrower than this are searched with the quick iteration only (rad, 0.25°). */

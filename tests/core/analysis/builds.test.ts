@@ -62,7 +62,9 @@ describe('modifications as physical changes', () => {
     expect(b.body.roofHeightM).toBeCloseTo(v.body.roofHeightM + 0.05, 12);
     const d = applyBuild(v, { name: 'body', lift: { bodyM: 0.05 } });
     expect(d.vehicle.cg.heightM).toBeCloseTo(0.75 + (0.05 * 0.35 * 1680) / 2000, 12);
-    expect(d.changes[0]).toMatch(/body taken as 35 % of the sprung mass/);
+    // The core returns the change as numbers; the words come from src/present (tests/present/words.test.ts).
+    expect(d.changes[0]).toMatchObject({ kind: 'body-lift', liftM: 0.05, bodyShare: 0.35 });
+    expect((d.changes[0] as { bodyMassKg: number }).bodyMassKg).toBeCloseTo(0.35 * 1680, 9);
   });
 
   it('bigger tyres raise everything by the radius change', () => {

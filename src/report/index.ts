@@ -3,4 +3,4 @@ export { collectReport, keyStationOf, passOptionsOf, REPORT_TILTS, type ReportDa
 export { renderReportHtml, REPORT_CAUTIONS, COMMON_PRACTICE_MAX_SLOPE_DEG, COMMON_PRACTICE_MAX_SLOPE_TOWING_DEG, type ReportMeta } from './html';
 export { vehicleDrawing, type VehicleDrawingInput } from './drawing';
 export { lineChart, polarChart, type Series, type ChartEvent, type PolarSeries } from './svg';
-export { degRounded, degHeadline, esc, reportUnits, type ReportUnits } from './text';
+export { esc } from '../present/text';

@@ -7,10 +7,11 @@
  * the wheel tracks sampled from the terrain. The drawing is in the terrain frame: on a tilt table
  * the ground is drawn level and the plumb line leans.
  */
-import type { Pose, SolveResult, Vehicle } from '../model/types';
-import type { TerrainField } from '../terrain/field';
-import { bodyToTerrain } from '../solver/frame';
-import { esc, fixed } from './text';
+import type { Pose, SolveResult, Vehicle } from '../core/model/types';
+import type { TerrainField } from '../core/terrain/field';
+import { bodyToTerrain } from '../core/solver/frame';
+import { esc } from '../present/text';
+import { M_PER_FT, fixed, type UnitSystem } from '../present/units';
 
 type V3 = readonly [number, number, number];
 
@@ -54,6 +55,8 @@ export interface VehicleDrawingInput {
   readonly result: SolveResult;
   /** Caption under the drawings. */
   readonly caption: string;
+  /** Units of the scale bar: 1 m, or 3 ft in imperial. @default 'metric' */
+  readonly units?: UnitSystem;
 }
 
 /** Side and rear drawings side by side, as one <svg>. */
@@ -211,10 +214,11 @@ export function vehicleDrawing(d: VehicleDrawingInput): string {
   };
   render(sideP, 0, views.side.title);
   render(rearP, panelW + gap, views.rear.title);
-  // Scale bar: 1 m.
-  const bar = scale;
+  // Scale bar: 1 m, or 3 ft in imperial.
+  const imperial = d.units === 'imperial';
+  const bar = imperial ? 3 * M_PER_FT * scale : scale;
   out.push(`<line x1="4" x2="${fixed(4 + bar, 1)}" y1="${H - 24}" y2="${H - 24}" stroke="#000" stroke-width="1.4"/>`);
-  out.push(`<text x="4" y="${H - 28}" class="tk">1 m</text>`);
+  out.push(`<text x="4" y="${H - 28}" class="tk">${imperial ? '3 ft' : '1 m'}</text>`);
   out.push(`<text x="${fixed(12 + bar, 1)}" y="${H - 20}" class="tk">solid ground: under the near-side track (side) / rear axle (rear); dashed: far side / front axle. Red: CG and plumb line.</text>`);
   out.push(`<text x="4" y="${H - 6}" class="tk">${esc(d.caption)}</text>`);
   out.push('</svg>');

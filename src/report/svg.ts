@@ -4,7 +4,10 @@
  * external references), drawn in black and greys with dash patterns as well as colour so that a
  * black-and-white print still tells the lines apart.
  */
-import { esc, fixed } from './text';
+import { esc } from '../present/text';
+import { fixed } from '../present/units';
+import { extent, linearAxis } from '../present/scale';
+export { WHEEL_STYLES } from '../present/palette';
 
 /** One line of a chart. */
 export interface Series {
@@ -36,34 +39,6 @@ export interface LineChartOptions {
   readonly yInclude?: readonly number[];
 }
 
-/** Wheel line styles FL, FR, RL, RR: colour and dash, distinct in print. */
-export const WHEEL_STYLES: readonly { readonly colour: string; readonly dash: string }[] = [
-  { colour: '#1f4e9c', dash: '' },
-  { colour: '#b8461b', dash: '6 3' },
-  { colour: '#2c7a3f', dash: '2 2' },
-  { colour: '#6b3d8f', dash: '8 3 2 3' },
-];
-
-/** A "nice" step for about `n` ticks over span. */
-function niceStep(span: number, n: number): number {
-  const raw = span / Math.max(1, n);
-  const p = Math.pow(10, Math.floor(Math.log10(raw)));
-  const f = raw / p;
-  return (f < 1.5 ? 1 : f < 3 ? 2 : f < 7 ? 5 : 10) * p;
-}
-
-function ticks(lo: number, hi: number, n: number): number[] {
-  const step = niceStep(hi - lo, n);
-  const out: number[] = [];
-  for (let v = Math.ceil(lo / step) * step; v <= hi + step * 1e-9; v += step) out.push(Math.abs(v) < step * 1e-9 ? 0 : v);
-  return out;
-}
-
-function tickText(v: number, step: number): string {
-  const d = step >= 1 ? 0 : Math.min(4, Math.ceil(-Math.log10(step)));
-  return fixed(v, d);
-}
-
 /** A line chart as an <svg> element string. */
 export function lineChart(series: readonly Series[], o: LineChartOptions): string {
   const W = o.width ?? 640;
@@ -71,30 +46,28 @@ export function lineChart(series: readonly Series[], o: LineChartOptions): strin
   const m = { l: 58, r: 14, t: 26, b: 40 };
   const pw = W - m.l - m.r;
   const ph = H - m.t - m.b;
-  let xmin = Infinity, xmax = -Infinity, ymin = Infinity, ymax = -Infinity;
+  // Bounds in one pass over each series (no spread of large arrays into Math.min/max).
+  let xmin = Infinity, xmax = -Infinity;
   for (const s of series) {
     for (let i = 0; i < s.xs.length; i++) {
-      const x = s.xs[i], y = s.ys[i];
-      if (!Number.isFinite(x) || !Number.isFinite(y)) continue;
+      const x = s.xs[i];
+      if (!Number.isFinite(x) || !Number.isFinite(s.ys[i])) continue;
       if (x < xmin) xmin = x;
       if (x > xmax) xmax = x;
-      if (y < ymin) ymin = y;
-      if (y > ymax) ymax = y;
     }
   }
-  for (const y of o.yInclude ?? []) {
-    if (y < ymin) ymin = y;
-    if (y > ymax) ymax = y;
-  }
   if (!Number.isFinite(xmin)) { xmin = 0; xmax = 1; }
-  if (!Number.isFinite(ymin)) { ymin = 0; ymax = 1; }
-  if (xmax - xmin < 1e-9) xmax = xmin + 1;
+  let [ymin, ymax] = extent(series.map((s) => s.ys), o.yInclude ?? []);
   if (ymax - ymin < 1e-9) { ymax += 0.5; ymin -= 0.5; }
   const pad = 0.05 * (ymax - ymin);
   ymin -= pad;
   ymax += pad;
-  const X = (x: number) => m.l + ((x - xmin) / (xmax - xmin)) * pw;
-  const Y = (y: number) => m.t + (1 - (y - ymin) / (ymax - ymin)) * ph;
+  const xAxis = linearAxis(xmin, xmax, m.l, m.l + pw, 8, false);
+  const yAxis = linearAxis(ymin, ymax, m.t + ph, m.t, 5, false);
+  xmin = xAxis.domain[0];
+  xmax = xAxis.domain[1];
+  const X = (x: number) => xAxis.scale(x);
+  const Y = (y: number) => yAxis.scale(y);
   const parts: string[] = [];
   parts.push(`<svg class="chart" viewBox="0 0 ${W} ${H}" width="${W}" height="${H}" role="img" aria-label="${esc(o.title)}">`);
   parts.push(`<text x="${m.l}" y="16" class="ct">${esc(o.title)}</text>`);
@@ -105,17 +78,15 @@ export function lineChart(series: readonly Series[], o: LineChartOptions): strin
       parts.push(`<rect x="${fixed(x0, 1)}" y="${m.t}" width="${fixed(Math.max(1, x1 - x0), 1)}" height="${ph}" fill="#000" fill-opacity="0.06"/>`);
     }
   }
-  const xt = ticks(xmin, xmax, 8);
-  const xs = niceStep(xmax - xmin, 8);
-  const yt = ticks(ymin, ymax, 5);
-  const ys = niceStep(ymax - ymin, 5);
+  const xt = xAxis.ticks;
+  const yt = yAxis.ticks;
   for (const v of yt) {
     parts.push(`<line x1="${m.l}" x2="${m.l + pw}" y1="${fixed(Y(v), 1)}" y2="${fixed(Y(v), 1)}" stroke="#ddd" stroke-width="0.6"/>`);
-    parts.push(`<text x="${m.l - 5}" y="${fixed(Y(v) + 3.5, 1)}" text-anchor="end" class="tk">${tickText(v, ys)}</text>`);
+    parts.push(`<text x="${m.l - 5}" y="${fixed(Y(v) + 3.5, 1)}" text-anchor="end" class="tk">${yAxis.label(v)}</text>`);
   }
   for (const v of xt) {
     parts.push(`<line y1="${m.t}" y2="${m.t + ph}" x1="${fixed(X(v), 1)}" x2="${fixed(X(v), 1)}" stroke="#eee" stroke-width="0.6"/>`);
-    parts.push(`<text x="${fixed(X(v), 1)}" y="${m.t + ph + 13}" text-anchor="middle" class="tk">${tickText(v, xs)}</text>`);
+    parts.push(`<text x="${fixed(X(v), 1)}" y="${m.t + ph + 13}" text-anchor="middle" class="tk">${xAxis.label(v)}</text>`);
   }
   for (const r of o.refLines ?? []) {
     if (r.y < ymin || r.y > ymax) continue;

@@ -2,7 +2,7 @@
 import { createContext, createElement, useContext, useRef, type ReactNode } from 'react';
 import { useStore } from 'zustand';
 import type { Scenario } from '../core';
-import type { PlumbState, PlumbStore } from '../store/store';
+import type { PlumbState, PlumbStore } from './store';
 
 const StoreContext = createContext<PlumbStore | null>(null);
 
@@ -13,7 +13,7 @@ export function StoreProvider({ store, children }: { store: PlumbStore; children
 /** The store itself (for actions and transient subscriptions). */
 export function usePlumbStore(): PlumbStore {
   const s = useContext(StoreContext);
-  if (!s) throw new Error('app: usePlumbStore must be inside <StoreProvider>');
+  if (!s) throw new Error('store: usePlumbStore must be inside <StoreProvider>');
   return s;
 }
 

@@ -6,15 +6,43 @@
  *
  * The core never reads a clock: the tool version and the date are passed in.
  */
-import { WHEEL_NAMES, type TerrainFeature } from '../model/types';
-import { RAD_PER_DEG } from '../scenario/units';
-import type { PassEvent } from '../analysis/pass';
-import type { BuildRow, MetricName } from '../analysis/builds';
-import { liftAngleOf, tipAngleOf } from '../analysis/rose';
+import { WHEEL_NAMES, type TerrainFeature } from '../core/model/types';
+import type { BuildRow } from '../core/analysis/builds';
+import { liftAngleOf, tipAngleOf } from '../core/analysis/rose';
+import {
+  BUILD_METRICS,
+  COMMON_PRACTICE_MAX_SLOPE_DEG,
+  ENERGY_COLOUR,
+  METRICS_NOTE,
+  NO_VALUE,
+  OF_STATIC_NOTE,
+  RAD_PER_DEG,
+  REPORT_CAUTIONS,
+  TILT_DATUM_NOTE,
+  WHEEL_STYLES,
+  angleText,
+  buildChangesWords,
+  directionText,
+  esc,
+  eventWhat,
+  fixed,
+  metricUnit,
+  metricValue,
+  partWords,
+  passHeadline as passHeadlineWords,
+  percentText,
+  quantityText,
+  statusWords,
+  toDisplay,
+  unitSymbol,
+  unitsLine,
+  type UnitSystem,
+} from '../present/index';
 import type { ReportData } from './collect';
 import { vehicleDrawing } from './drawing';
-import { lineChart, polarChart, WHEEL_STYLES, type ChartEvent, type Series } from './svg';
-import { deg3, degHeadline, degRounded, esc, fixed, len, reportUnits, round4, type ReportUnits } from './text';
+import { lineChart, polarChart, type ChartEvent, type Series } from './svg';
+
+export { COMMON_PRACTICE_MAX_SLOPE_DEG, COMMON_PRACTICE_MAX_SLOPE_TOWING_DEG, REPORT_CAUTIONS } from '../present/words';
 
 export interface ReportMeta {
   /** Plumbline version (package.json). */
@@ -29,6 +57,8 @@ export interface ReportMeta {
    * report never refers to an outside address. @default none
    */
   readonly sceneImageDataUrl?: string;
+  /** Units the report is written in (the app's display units; the CLI's --units). @default the scenario file's */
+  readonly units?: UnitSystem;
 }
 
 /** A data: URL of a PNG or JPEG image in base64 (nothing that could load from elsewhere). */
@@ -42,21 +72,6 @@ function sceneImageSection(url: string): string {
     '</section>'
   );
 }
-
-/**
- * Slope printed as the maximum in operator manuals of ride-on mowers, utility vehicles and ATVs
- * (10° when towing): common practice, no single published source (docs/REFERENCES "Limits").
- */
-export const COMMON_PRACTICE_MAX_SLOPE_DEG = 15;
-export const COMMON_PRACTICE_MAX_SLOPE_TOWING_DEG = 10;
-
-/** The caution, the same words at the top and the bottom of every report. */
-export const REPORT_CAUTIONS: readonly string[] = [
-  'These results are quasi-static estimates: the vehicle is taken to stand still, or crawl so slowly that each position is a standing one, on ground that does not give way.',
-  'Real margins are smaller: rough, soft, loose or wet ground, bounce, speed, momentum, steering, braking, wind, load shifting and tyre or suspension wear all reduce them.',
-  `Operating limits are a fraction of the static limit. Common practice: makers of utility vehicles, ATVs and ride-on mowers commonly print ${COMMON_PRACTICE_MAX_SLOPE_DEG}° as the maximum slope (${COMMON_PRACTICE_MAX_SLOPE_TOWING_DEG}° when towing), far below the static tip angles shown here. This report uses that ${COMMON_PRACTICE_MAX_SLOPE_DEG}° line as a reference only (common practice, not a published standard).`,
-  'Defer to the vehicle maker’s limits, local regulations and licensed or trained practice. Do not use this report to decide that a slope or an obstacle is safe to drive.',
-];
 
 const CSS = `
 @page { margin: 14mm 12mm; }
@@ -104,14 +119,20 @@ function cautionBox(where: string): string {
   return `<div class="caution" id="caution-${where}"><h2>Caution</h2><ul>${REPORT_CAUTIONS.map((c) => `<li>${esc(c)}</li>`).join('')}</ul></div>`;
 }
 
-const mm = (u: ReportUnits, m: number) => `${fixed(u.shortLengthOf(m), u.shortLength === 'mm' ? 0 : 1)} ${u.shortLength}`;
-const range = (u: ReportUnits, r: readonly [number, number] | null) => (r ? `${len(u, r[0])} to ${len(u, r[1])}` : 'unbounded');
-const deg2 = (rad: number) => `${fixed(rad / RAD_PER_DEG, 2)}°`;
+type U = UnitSystem;
+const len = (u: U, m: number) => quantityText('length', m, u);
+const short = (u: U, m: number | null) => quantityText('short', m, u);
+const dist = (u: U, m: number) => quantityText('distance', m, u);
+const kg = (u: U, x: number) => quantityText('mass', x, u);
+const force = (u: U, n: number | null) => quantityText('force', n, u);
+const range = (u: U, r: readonly [number, number] | null) => (r ? `${len(u, r[0])} to ${len(u, r[1])}` : 'unbounded');
+/** Angle at 0.1°, a number only (the header or the words around it give the datum). */
+const deg = (rad: number | null | undefined) => angleText(rad);
 
-function featureRow(u: ReportUnits, f: TerrainFeature, i: number): string[] {
+function featureRow(u: U, f: TerrainFeature, i: number): string[] {
   switch (f.type) {
     case 'plane':
-      return [String(i + 1), 'plane', `grade ${deg2(f.gradeRad)} (rises toward +x), cross slope ${deg2(f.crossSlopeRad)} (rises toward +y), height ${len(u, f.heightM)} at the origin`];
+      return [String(i + 1), 'plane', `grade ${deg(f.gradeRad)} from level (rises toward +x), cross slope ${deg(f.crossSlopeRad)} from level (rises toward +y), height ${len(u, f.heightM)} at the origin`];
     case 'step':
       return [String(i + 1), 'step (ledge)', `at x = ${len(u, f.xM)}, ${f.heightM >= 0 ? 'up' : 'down'} ${len(u, Math.abs(f.heightM))}, across y ${range(u, f.yRangeM)}, edge radius ${len(u, f.edgeRadiusM)}`];
     case 'block':
@@ -119,20 +140,26 @@ function featureRow(u: ReportUnits, f: TerrainFeature, i: number): string[] {
     case 'rock':
       return [String(i + 1), 'rock', `centre (${len(u, f.xM)}, ${len(u, f.yM)}), height ${len(u, f.heightM)}, footprint radius ${len(u, f.radiusM)}`];
     case 'ramp':
-      return [String(i + 1), 'ramp', `from x = ${len(u, f.xM)}, ${deg2(f.angleRad)} over ${len(u, f.lengthM)} along its surface, across y ${range(u, f.yRangeM)}`];
+      return [String(i + 1), 'ramp', `from x = ${len(u, f.xM)}, ${deg(f.angleRad)} from level over ${len(u, f.lengthM)} along its surface, across y ${range(u, f.yRangeM)}`];
     case 'profile': {
-      const zs = f.points.map((p) => p[1]);
+      // One pass (a profile may have 100 000 points: no spread into Math.min / Math.max).
+      let lo = Infinity, hi = -Infinity;
+      for (const p of f.points) {
+        if (p[1] < lo) lo = p[1];
+        if (p[1] > hi) hi = p[1];
+      }
       return [
         String(i + 1),
         'profile',
-        `${f.points.length} points along ${f.axis} from ${len(u, f.points[0][0])} to ${len(u, f.points[f.points.length - 1][0])}, heights ${len(u, Math.min(...zs))} to ${len(u, Math.max(...zs))}, across ${range(u, f.acrossM)}`,
+        `${f.points.length} points along ${f.axis} from ${len(u, f.points[0][0])} to ${len(u, f.points[f.points.length - 1][0])}, heights ${len(u, lo)} to ${len(u, hi)}, across ${range(u, f.acrossM)}`,
       ];
     }
     case 'grid': {
       let lo = Infinity, hi = -Infinity;
       for (let k = 0; k < f.heightsM.length; k++) {
-        lo = Math.min(lo, f.heightsM[k]);
-        hi = Math.max(hi, f.heightsM[k]);
+        const z = f.heightsM[k];
+        if (z < lo) lo = z;
+        if (z > hi) hi = z;
       }
       return [
         String(i + 1),
@@ -140,45 +167,59 @@ function featureRow(u: ReportUnits, f: TerrainFeature, i: number): string[] {
         `${f.cols} × ${f.rows} nodes at ${len(u, f.spacingM)} from (${len(u, f.originM[0])}, ${len(u, f.originM[1])}), heights ${len(u, lo)} to ${len(u, hi)}`,
       ];
     }
+    default:
+      return [String(i + 1), String((f as { type: string }).type), ''];
   }
 }
 
-function scenarioSection(d: ReportData, u: ReportUnits): string {
+function scenarioSection(d: ReportData, u: U): string {
   const s = d.scenario;
   const v = s.vehicle;
   const out: string[] = [];
   out.push('<section id="scenario"><h2>The scenario</h2>');
-  out.push(`<p class="small">Units: ${s.units === 'imperial' ? 'imperial (in, lb, lbf, lbf/in, lbf·ft/deg)' : 'metric (m, mm, kg, N, N/m, N·m/deg)'}; angles in degrees. Positions are behind the front axle, above level ground at ride height, and left of the centre line.</p>`);
+  out.push(`<p class="small">Units: ${esc(unitsLine(u))}; angles in degrees${s.units !== u ? ` (the scenario file is in ${s.units} units)` : ''}. Positions are behind the front axle, above level ground at ride height, and left of the centre line.</p>`);
   out.push('<h3>Vehicle</h3>');
-  const kg = (x: number) => `${fixed(u.kgOf(x), 0)} ${u.mass}`;
   out.push(
     kv([
       ['name', v.name],
       ['wheelbase', len(u, v.wheelbaseM)],
       ['track front / rear', `${len(u, v.trackFrontM)} / ${len(u, v.trackRearM)}`],
-      ['mass as weighed (no payload)', kg(v.massKg)],
+      ['mass as weighed (no payload)', kg(u, v.massKg)],
       ['CG as weighed', `${len(u, v.cg.behindFrontAxleM)} behind the front axle, ${len(u, v.cg.heightM)} high, ${len(u, v.cg.leftOfCentreM)} left of centre`],
-      ['unsprung mass front / rear', `${kg(v.unsprungMassFrontKg)} / ${kg(v.unsprungMassRearKg)}`],
-      ['total mass with payload', kg(v.massKg + v.payload.reduce((a, p) => a + p.massKg, 0))],
+      ['unsprung mass front / rear', `${kg(u, v.unsprungMassFrontKg)} / ${kg(u, v.unsprungMassRearKg)}`],
+      ['total mass with payload', kg(u, v.massKg + v.payload.reduce((a, p) => a + p.massKg, 0))],
       ['total CG height with payload', len(u, d.cgHeightM)],
     ]),
   );
   out.push('<h3>Tyres and suspension</h3>');
+  const stiff = (x: number) => quantityText('stiffness', x, u).replace(` ${unitSymbol('stiffness', u)}`, '');
+  const roll = (x: number) => quantityText('rollStiffness', x, u).replace(` ${unitSymbol('rollStiffness', u)}`, '');
   const axleRow = (name: string, a: typeof v.suspensionFront, t: typeof v.tyreFront) => [
     name,
     a.type,
-    `${fixed(u.stiffnessOf(a.wheelRateNPerM), 0)}`,
-    mm(u, a.bumpM),
-    mm(u, a.droopM),
-    fixed(u.rollStiffnessOf(a.antiRollNmPerRad), 0),
+    stiff(a.wheelRateNPerM),
+    short(u, a.bumpM),
+    short(u, a.droopM),
+    roll(a.antiRollNmPerRad),
     len(u, a.rollCentreHeightM),
-    a.springSpacingM === undefined ? '–' : len(u, a.springSpacingM),
-    `${len(u, t.radiusM)} × ${mm(u, t.widthM)}`,
-    fixed(u.stiffnessOf(t.stiffnessNPerM), 0),
+    a.springSpacingM === undefined ? NO_VALUE : len(u, a.springSpacingM),
+    `${len(u, t.radiusM)} × ${short(u, t.widthM)}`,
+    stiff(t.stiffnessNPerM),
   ];
   out.push(
     table(
-      ['axle', 'type', `wheel rate (${u.stiffness})`, 'bump', 'droop', `anti-roll (${u.rollStiffness})`, 'roll centre', 'spring spacing', 'tyre radius × width', `tyre stiffness (${u.stiffness})`],
+      [
+        'axle',
+        'type',
+        `wheel rate (${unitSymbol('stiffness', u)})`,
+        'bump',
+        'droop',
+        `anti-roll (${unitSymbol('rollStiffness', u)})`,
+        'roll centre',
+        'spring spacing',
+        'tyre radius × width',
+        `tyre stiffness (${unitSymbol('stiffness', u)})`,
+      ],
       [axleRow('front', v.suspensionFront, v.tyreFront), axleRow('rear', v.suspensionRear, v.tyreRear)],
       [false, false, true, true, true, true, true, true, true, true],
     ),
@@ -188,8 +229,8 @@ function scenarioSection(d: ReportData, u: ReportUnits): string {
     v.payload.length === 0
       ? '<p>None.</p>'
       : table(
-          ['item', `mass (${u.mass})`, 'behind front axle', 'height', 'left of centre'],
-          v.payload.map((p) => [p.label, fixed(u.kgOf(p.massKg), 0), len(u, p.behindFrontAxleM), len(u, p.heightM), len(u, p.leftOfCentreM)]),
+          ['item', `mass (${unitSymbol('mass', u)})`, 'behind front axle', 'height', 'left of centre'],
+          v.payload.map((p) => [p.label, quantityText('mass', p.massKg, u).replace(` ${unitSymbol('mass', u)}`, ''), len(u, p.behindFrontAxleM), len(u, p.heightM), len(u, p.leftOfCentreM)]),
           [false, true, true, true, true],
         ),
   );
@@ -206,7 +247,7 @@ function scenarioSection(d: ReportData, u: ReportUnits): string {
   );
   if (d.builds) {
     out.push('<h3>Build options</h3>');
-    out.push(table(['build', 'modifications as modelled'], d.builds.map((r) => [r.name, r.changes.join('; ')])));
+    out.push(table(['build', 'modifications as modelled'], d.builds.map((r) => [r.name, buildChangesWords(r.changes, u)])));
   }
   out.push('<h3>Terrain</h3>');
   out.push(
@@ -217,9 +258,9 @@ function scenarioSection(d: ReportData, u: ReportUnits): string {
   const p = s.path;
   out.push(
     kv([
-      ['pose', `x ${len(u, s.pose.xM)}, y ${len(u, s.pose.yM)}, heading ${deg2(s.pose.headingRad)}`],
-      ['tilt table', s.tilt.angleRad === 0 ? 'none' : `${deg2(s.tilt.angleRad)}, downhill ${deg2(s.tilt.downhillRad)} (0 nose, 90 left, 180 tail, 270 right)`],
-      ['obstacle pass path', p ? `from (${len(u, p.fromM[0])}, ${len(u, p.fromM[1])}) to (${len(u, p.toM[0])}, ${len(u, p.toM[1])}) every ${len(u, p.stepM)}, heading ${p.headingRad === null ? 'along the path' : deg2(p.headingRad)}` : 'none'],
+      ['pose', `x ${len(u, s.pose.xM)}, y ${len(u, s.pose.yM)}, heading ${deg(s.pose.headingRad)}`],
+      ['tilt table', s.tilt.angleRad === 0 ? 'none' : `${deg(s.tilt.angleRad)} from level, downhill ${directionText(s.tilt.downhillRad)} (0 nose, 90 left, 180 tail, 270 right)`],
+      ['obstacle pass path', p ? `from (${len(u, p.fromM[0])}, ${len(u, p.fromM[1])}) to (${len(u, p.toM[0])}, ${len(u, p.toM[1])}) every ${dist(u, p.stepM)}, heading ${p.headingRad === null ? 'along the path' : deg(p.headingRad)}` : 'none'],
       ['ground friction coefficient', fixed(s.friction, 2)],
     ]),
   );
@@ -230,15 +271,21 @@ function scenarioSection(d: ReportData, u: ReportUnits): string {
 
 function liftText(t: ReportData['tilts'][number]): string {
   const r = t.result;
-  return r.firstLift ? `${r.firstLift.wheel} at ${degHeadline(r.firstLift.angleRad)}` : 'none before the tip';
+  return r.firstLift ? `${r.firstLift.wheel} at ${deg(r.firstLift.angleRad)}` : 'none before the tip';
 }
 
 function tipText(t: ReportData['tilts'][number]): string {
   const r = t.result;
-  return r.tip ? `${degHeadline(r.tip.angleRad)} over ${r.tip.edge.join('–')}` : 'no tip up to 89°';
+  return r.tip ? `${deg(r.tip.angleRad)} over ${r.tip.edge.join('–')}` : 'no tip up to 89°';
 }
 
-function summarySection(d: ReportData, u: ReportUnits, meta: ReportMeta): string {
+/** One wheel's load in words: "FL 5.21 kN (118 % of static)", "FL lifted", "FL —" when the pose does not stand. */
+function wheelLoadText(u: U, w: { readonly name: string; readonly loadN: number | null; readonly loadShare: number | null; readonly lifted: boolean }): string {
+  if (w.lifted) return `${w.name} lifted`;
+  return `${w.name} ${force(u, w.loadN)}${w.loadShare === null ? '' : ` (${percentText(w.loadShare)} of static)`}`;
+}
+
+function summarySection(d: ReportData, u: U, meta: ReportMeta): string {
   const s = d.scenario;
   const out: string[] = [];
   out.push('<section class="first" id="summary">');
@@ -251,33 +298,31 @@ function summarySection(d: ReportData, u: ReportUnits, meta: ReportMeta): string
   const pose = d.pose;
   const pairs: [string, string][] = [
     ['Static Stability Factor T/(2h)', `${fixed(d.ssf, 3)} (mean track ${len(u, d.trackMeanM)}, CG height with payload ${len(u, d.cgHeightM)})`],
-    ['At the scenario pose', `${pose.status}: ${pose.reason}`],
+    ['At the scenario pose', `${statusWords(pose.status).toLowerCase()}: ${pose.reason}`],
   ];
-  if (pose.status === 'converged') {
-    pairs.push([
-      'Tyre loads at the scenario pose',
-      pose.wheels.map((w) => `${w.name} ${fixed(u.forceOf((w.loadN ?? 0)), 0)} ${u.force}${w.lifted ? ' (lifted)' : ''}`).join(', '),
-    ]);
-    pairs.push(['Force-angle margin at the pose', `${degRounded(pose.margins.forceAngleRad, 2)}° (weakest edge ${pose.margins.weakestEdgeWheels.join('–') || 'none'})`]);
-    pairs.push(['Energy margin at the pose', len(u, pose.margins.energyM)]);
+  if (pose.standing) {
+    pairs.push(['Tyre loads at the scenario pose (normal load)', pose.wheels.map((w) => wheelLoadText(u, w)).join(', ')]);
+    pairs.push(['Force-angle margin at the pose', `${deg(pose.margins.forceAngleRad)} (angle between the net force and the tip edge ${pose.margins.weakestEdgeWheels.join('–') || 'none'})`]);
+    pairs.push(['Energy margin at the pose', `${short(u, pose.margins.energyM)} (how far the CG must rise to tip)`]);
   }
   out.push(`<div class="headline">${kv(pairs)}</div>`);
+  if (pose.standing) out.push(`<p class="small">${esc(OF_STATIC_NOTE)}</p>`);
   out.push('<h3>Tilt table at the scenario pose: first wheel lift and tip</h3>');
   out.push(
     table(
-      ['downhill', 'first wheel to lift', 'tips at', 'slides at (friction ' + fixed(s.friction, 2) + ')'],
-      d.tilts.map((t) => [t.label, liftText(t), tipText(t), t.result.slide ? degHeadline(t.result.slide.angleRad) : 'no slide before the tip']),
+      ['downhill', 'first wheel to lift (tilt from level)', 'tips at (tilt from level)', 'slides at (friction ' + fixed(s.friction, 2) + ')'],
+      d.tilts.map((t) => [t.label, liftText(t), tipText(t), t.result.slide ? deg(t.result.slide.angleRad) : 'no slide before the tip']),
     ),
   );
   out.push(
-    `<p class="small">Tilt-table sweep as in SAE J2180 and ISO 16333 (raise slowly, note the angle at which a wheel lifts and the angle of no equilibrium), from the scenario tilt${s.tilt.angleRad ? ` (${deg2(s.tilt.angleRad)})` : ''}, on the scenario terrain, to 0.01°. Angles are the tilt of the table, not of the ground under the vehicle when the terrain itself slopes.</p>`,
+    `<p class="small">Tilt-table sweep as in SAE J2180 and ISO 16333 (raise slowly, note the angle at which a wheel lifts and the angle of no equilibrium), from the scenario tilt${s.tilt.angleRad ? ` (${deg(s.tilt.angleRad)})` : ''}, on the scenario terrain, bracketed to 0.01° and shown to 0.1°. ${esc(TILT_DATUM_NOTE)}</p>`,
   );
   const maxA = d.rose.maxAngleRad;
   const weak = d.rose.weakest;
   const weakTip = tipAngleOf(weak, maxA);
   out.push(
     kv([
-      ['Weakest direction (rose, level tilt table)', `tips at ${weak.tip ? `${deg3(weak.tip.angleRad)}°` : 'no tip up to 89°'} with downhill ${deg3(weak.downhillRad)}° (0 nose, 90 left, 180 tail, 270 right)`],
+      ['Weakest direction (rose, level tilt table)', `tips at ${weak.tip ? `${deg(weak.tip.angleRad)} from level` : 'no tip up to 89°'} with downhill ${directionText(weak.downhillRad)} (0 nose, 90 left, 180 tail, 270 right)`],
       ['Common-practice operating line', `${COMMON_PRACTICE_MAX_SLOPE_DEG}° is ${fixed((100 * COMMON_PRACTICE_MAX_SLOPE_DEG * RAD_PER_DEG) / weakTip, 0)} % of the weakest static tip angle (common practice, see the caution)`],
     ]),
   );
@@ -286,32 +331,33 @@ function summarySection(d: ReportData, u: ReportUnits, meta: ReportMeta): string
   return out.join('');
 }
 
-function passHeadline(d: ReportData, u: ReportUnits): string {
+function passHeadline(d: ReportData, u: U): string {
   const p = d.pass!;
-  // Distances and angles written as the pass command's JSON gives them.
-  const at = (x: number) => `${round4(x)} m`;
   const pairs: [string, string][] = [
     ['Stations', `${p.stations.length} of ${p.plannedStations} planned`],
-    ['First wheel to go light', p.firstUnload ? `${p.firstUnload.wheel} at ${at(p.firstUnload.distanceM)} (below ${fixed(100 * p.lightShare, 0)} % of its level load)` : 'none'],
-    ['First wheel to lift', p.firstLift ? `${p.firstLift.wheel} at ${at(p.firstLift.distanceM)}` : 'none'],
-    ['Tip', p.tip ? `at ${at(p.tip.distanceM)}: ${p.tip.reason}` : 'none: the vehicle stands all along the path'],
+    ['First wheel to go light', p.firstUnload ? `${p.firstUnload.wheel} at ${dist(u, p.firstUnload.distanceM)} (below ${percentText(p.lightShare)} of static)` : 'none'],
+    ['First wheel to lift', p.firstLift ? `${p.firstLift.wheel} at ${dist(u, p.firstLift.distanceM)}` : 'none'],
+    ['Tip', p.tip ? `at ${dist(u, p.tip.distanceM)}: ${p.tip.reason}` : 'none: the vehicle stands at every station'],
     [
       'Smallest force-angle margin',
-      p.minMargin ? `${deg3(p.minMargin.forceAngleRad)}° at ${at(p.minMargin.distanceM)} (energy margin there ${len(u, p.minMargin.energyM)})` : '–',
+      p.minMargin ? `${deg(p.minMargin.forceAngleRad)} at ${dist(u, p.minMargin.distanceM)} (energy margin there ${short(u, p.minMargin.energyM)})` : NO_VALUE,
     ],
-    ['Smallest underbody clearance', p.minClearance ? `${len(u, p.minClearance.clearanceM)} (${p.minClearance.part}) at ${at(p.minClearance.distanceM)}` : '–'],
+    ['Smallest underbody gap', p.minClearance ? `${short(u, p.minClearance.clearanceM)} (${partWords(p.minClearance.part)}) at ${dist(u, p.minClearance.distanceM)}` : NO_VALUE],
   ];
-  return `<h3>Obstacle pass</h3>${kv(pairs)}<p class="small">Distances along the path from its start, in m.</p>`;
+  return (
+    `<h3>Obstacle pass</h3><p class="headline" id="pass-headline">${esc(passHeadlineWords(p, u))}</p>${kv(pairs)}` +
+    `<p class="small">Distances along the path from its start, in ${unitSymbol('distance', u)}.</p>`
+  );
 }
 
 function roseSection(d: ReportData): string {
   const r = d.rose;
   const maxA = r.maxAngleRad;
   const dirs = r.directions.map((x) => x.downhillRad);
-  const tipDeg = r.directions.map((x) => (x.tip ? x.tip.angleRad / RAD_PER_DEG : null));
-  const liftDeg = r.directions.map((x) => liftAngleOf(x, maxA) / RAD_PER_DEG);
+  const tipDeg = r.directions.map((x) => (x.tip ? toDisplay('angle', x.tip.angleRad, 'metric') : null));
+  const liftDeg = r.directions.map((x) => toDisplay('angle', liftAngleOf(x, maxA), 'metric'));
   let top = 0;
-  for (const x of r.directions) top = Math.max(top, tipAngleOf(x, maxA) / RAD_PER_DEG);
+  for (const x of r.directions) top = Math.max(top, toDisplay('angle', tipAngleOf(x, maxA), 'metric'));
   const maxDeg = Math.min(90, Math.max(30, Math.ceil(top / 10) * 10));
   const rings = [];
   for (let g = 10; g <= maxDeg; g += 10) rings.push({ deg: g, label: `${g}°` });
@@ -319,70 +365,64 @@ function roseSection(d: ReportData): string {
   const chart = polarChart(
     [
       { label: 'tips at', directionsRad: dirs, valuesDeg: tipDeg, colour: '#000', dash: '', fill: true },
-      { label: 'first wheel lifts at', directionsRad: dirs, valuesDeg: liftDeg, colour: '#1f4e9c', dash: '5 3' },
+      { label: 'first wheel lifts at', directionsRad: dirs, valuesDeg: liftDeg, colour: WHEEL_STYLES[0].colour, dash: '5 3' },
     ],
-    { title: 'Tilt-table angle by downhill direction (from above, nose up)', maxDeg, rings, size: 420 },
+    { title: 'Tilt-table angle from level by downhill direction (from above, nose up)', maxDeg, rings, size: 420 },
   );
-  const step = r.directions.length > 1 ? (r.directions[1].downhillRad - r.directions[0].downhillRad) / RAD_PER_DEG : 360;
+  const step = r.directions.length > 1 ? r.directions[1].downhillRad - r.directions[0].downhillRad : 2 * Math.PI;
   return (
     '<section id="rose"><h2>Stability rose</h2>' +
-    `<p>A tilt-table sweep for each downhill direction every ${fixed(step, 0)}°, the vehicle on a level tilt table (as the rose command by default: a property of the build, not of the site). The radius is the table angle: solid, the angle of no equilibrium (tip); dashed, the first wheel lift. The dashed black ring is the ${COMMON_PRACTICE_MAX_SLOPE_DEG}° operating line of common practice. A direction with no tip up to 89° is drawn at the outer ring.</p>` +
-    `<figure>${chart}<figcaption>Weakest: tips at ${r.weakest.tip ? `${deg3(r.weakest.tip.angleRad)}°` : 'no tip up to 89°'} with downhill ${deg3(r.weakest.downhillRad)}°; earliest lift ${r.weakestLift.firstLift ? `${r.weakestLift.firstLift.wheel} at ${deg3(r.weakestLift.firstLift.angleRad)}° with downhill ${deg3(r.weakestLift.downhillRad)}°` : 'none before the tip'}.</figcaption></figure>` +
+    `<p>A tilt-table sweep for each downhill direction every ${directionText(step)}, the vehicle on a level tilt table (as the rose command by default: a property of the build, not of the site). The radius is the table's tilt from level: solid, the angle of no equilibrium (tip); dashed, the first wheel lift. The dashed black ring is the ${COMMON_PRACTICE_MAX_SLOPE_DEG}° operating line of common practice. A direction with no tip up to 89° is drawn at the outer ring.</p>` +
+    `<figure>${chart}<figcaption>Weakest: tips at ${r.weakest.tip ? deg(r.weakest.tip.angleRad) : 'no tip up to 89°'} from level with downhill ${directionText(r.weakest.downhillRad)}; earliest lift ${r.weakestLift.firstLift ? `${r.weakestLift.firstLift.wheel} at ${deg(r.weakestLift.firstLift.angleRad)} from level with downhill ${directionText(r.weakestLift.downhillRad)}` : 'none before the tip'}.</figcaption></figure>` +
     '</section>'
   );
 }
 
-function eventText(e: PassEvent): string {
-  const who = e.wheel ?? e.part ?? '';
-  const what: Record<PassEvent['kind'], string> = {
-    light: 'light',
-    lifted: 'lifted',
-    'full-bump': 'at full bump',
-    'full-droop': 'at full droop',
-    friction: 'needs more grip than the ground gives',
-    contact: 'underbody touches',
-    tip: 'tips',
-  };
-  return `${who ? `${who} ` : ''}${what[e.kind]}`;
-}
-
-function passSection(d: ReportData, u: ReportUnits): string {
+function passSection(d: ReportData, u: U): string {
   const p = d.pass!;
-  const xs = p.stations.map((s) => s.distanceM);
+  const du = unitSymbol('distance', u);
+  const xs = p.stations.map((s) => toDisplay('distance', s.distanceM, u));
+  const at = (m: number) => toDisplay('distance', m, u);
   const loads: Series[] = WHEEL_NAMES.map((name, k) => ({
     label: name,
     xs,
-    ys: p.stations.map((s) => u.forceOf(s.wheels[k].loadN)),
+    ys: p.stations.map((s) => {
+      const l = s.wheels[k].loadN as number | null;
+      return l === null ? NaN : toDisplay('force', l, u);
+    }),
     colour: WHEEL_STYLES[k].colour,
     dash: WHEEL_STYLES[k].dash,
   }));
   const marks: ChartEvent[] = [];
-  if (p.firstUnload) marks.push({ x: p.firstUnload.distanceM, label: `${p.firstUnload.wheel} light` });
-  if (p.firstLift) marks.push({ x: p.firstLift.distanceM, label: `${p.firstLift.wheel} lifts` });
-  if (p.minMargin) marks.push({ x: p.minMargin.distanceM, label: 'least margin' });
-  if (p.tip) marks.push({ x: p.tip.distanceM, label: 'tip' });
+  if (p.firstUnload) marks.push({ x: at(p.firstUnload.distanceM), label: `${p.firstUnload.wheel} light` });
+  if (p.firstLift) marks.push({ x: at(p.firstLift.distanceM), label: `${p.firstLift.wheel} lifts` });
+  if (p.minMargin) marks.push({ x: at(p.minMargin.distanceM), label: 'least margin' });
+  if (p.tip) marks.push({ x: at(p.tip.distanceM), label: 'tip' });
+  const lastX = xs.length > 0 ? xs[xs.length - 1] : 0;
   const bands: ChartEvent[] = p.events
     .filter((e) => e.kind === 'lifted' || e.kind === 'contact')
-    .map((e) => ({ x: e.startDistanceM, x1: e.endDistanceM ?? xs[xs.length - 1], label: eventText(e) }));
+    .map((e) => ({ x: at(e.startDistanceM), x1: e.endDistanceM === null ? lastX : at(e.endDistanceM), label: eventWhat(e) }));
+  const fu = unitSymbol('force', u);
+  const su = unitSymbol('short', u);
   const loadChart = lineChart(loads, {
-    title: `Tyre loads (${u.force}) along the path`,
-    xLabel: 'distance along the path (m)',
-    yLabel: `load (${u.force})`,
+    title: `Normal load per tyre (${fu}) along the path`,
+    xLabel: `distance along the path (${du})`,
+    yLabel: `load (${fu})`,
     events: [...bands, ...marks],
     yInclude: [0],
   });
   const faChart = lineChart(
-    [{ label: 'force-angle margin (°)', xs, ys: p.stations.map((s) => s.forceAngleRad / RAD_PER_DEG), colour: '#000', dash: '' }],
-    { title: 'Force-angle margin along the path (Papadopoulos & Rey 1996)', xLabel: 'distance along the path (m)', yLabel: 'degrees', events: marks, refLines: [{ y: 0, label: 'tip' }], yInclude: [0] },
+    [{ label: 'force-angle margin (°)', xs, ys: p.stations.map((s) => toDisplay('angle', s.forceAngleRad, u)), colour: '#000', dash: '' }],
+    { title: 'Force-angle margin along the path (Papadopoulos & Rey 1996)', xLabel: `distance along the path (${du})`, yLabel: 'degrees', events: marks, refLines: [{ y: 0, label: 'tip' }], yInclude: [0] },
   );
   const enChart = lineChart(
-    [{ label: `energy margin (${u.shortLength})`, xs, ys: p.stations.map((s) => u.shortLengthOf(s.energyM)), colour: '#1f4e9c', dash: '5 3' }],
-    { title: 'Energy margin along the path (Messuri & Klein 1985)', xLabel: 'distance along the path (m)', yLabel: u.shortLength, events: marks, refLines: [{ y: 0, label: 'tip' }], yInclude: [0] },
+    [{ label: `energy margin (${su})`, xs, ys: p.stations.map((s) => toDisplay('short', s.energyM, u)), colour: ENERGY_COLOUR, dash: '5 3' }],
+    { title: 'Energy margin along the path: CG rise to tip (Messuri & Klein 1985)', xLabel: `distance along the path (${du})`, yLabel: su, events: marks, refLines: [{ y: 0, label: 'tip' }], yInclude: [0] },
   );
   const evRows = p.events.map((e) => [
-    eventText(e),
-    fixed(e.startDistanceM, 2),
-    e.endDistanceM === null ? (e.kind === 'tip' ? '–' : 'to the end') : fixed(e.endDistanceM, 2),
+    eventWhat(e),
+    dist(u, e.startDistanceM).replace(` ${du}`, ''),
+    e.endDistanceM === null ? (e.kind === 'tip' ? NO_VALUE : 'to the end') : dist(u, e.endDistanceM).replace(` ${du}`, ''),
   ]);
   return (
     '<section id="pass"><h2>Obstacle pass</h2>' +
@@ -390,80 +430,64 @@ function passSection(d: ReportData, u: ReportUnits): string {
     passHeadline(d, u) +
     `<figure>${loadChart}</figure><figure>${faChart}</figure><figure>${enChart}</figure>` +
     '<h3>Events</h3>' +
-    (evRows.length === 0 ? '<p>None.</p>' : table(['event', 'from (m)', 'to (m)'], evRows, [false, true, true])) +
+    (evRows.length === 0 ? '<p>None.</p>' : table(['event', `from (${du})`, `to (${du})`], evRows, [false, true, true])) +
     '</section>'
   );
 }
 
-function drawingSection(d: ReportData, u: ReportUnits): string {
+function drawingSection(d: ReportData, u: U): string {
   const dr = d.drawing;
   const r = dr.result;
+  const where = dr.station ? `pass station ${dr.station.index} (${dist(u, dr.station.distanceM)} along the path): ${dr.why}` : dr.why;
   const svg = vehicleDrawing({
     vehicle: d.scenario.vehicle,
     field: d.field,
     pose: dr.pose,
     result: r,
-    caption: `At ${dr.why}.`,
+    caption: `At ${where}.`,
+    units: u,
   });
-  const rows = r.wheels.map((w) => [
-    w.name,
-    fixed(u.forceOf((w.loadN ?? 0)), 0),
-    fixed(100 * (w.loadShare ?? 0), 0),
-    mm(u, (w.travelM ?? 0)),
-    fixed(100 * (w.travelFraction ?? 0), 0),
-    w.lifted ? 'lifted' : '',
-  ]);
+  const rows = r.wheels.map((w) => {
+    const load = w.loadN as number | null;
+    const share = w.loadShare as number | null;
+    return [
+      w.name,
+      quantityText('force', load, u).replace(` ${unitSymbol('force', u)}`, ''),
+      percentText(share).replace(' %', ''),
+      short(u, w.travelM),
+      percentText(w.travelFraction).replace(' %', ''),
+      w.lifted ? 'lifted' : '',
+    ];
+  });
   return (
     '<section id="drawing"><h2>The vehicle at the key station</h2>' +
-    `<p>Orthographic line drawing from the solved pose at ${esc(dr.why)}: the body outline (a box with a flat belly, as given in the scenario), the wheels at their solved centres, the CG and the plumb line from it along gravity, and the ground under the vehicle.</p>` +
+    `<p>Orthographic line drawing from the solved pose at ${esc(where)}: the body outline (a box with a flat belly, as given in the scenario), the wheels at their solved centres, the CG and the plumb line from it along gravity, and the ground under the vehicle.</p>` +
     `<figure>${svg}</figure>` +
-    table(['wheel', `load (${u.force})`, 'of level load (%)', 'travel (+ bump)', 'travel used (%)', ''], rows, [false, true, true, true, true, false]) +
-    `<p class="small">Body roll / pitch to level: ${degRounded(r.body.rollToLevelRad, 2)}° / ${degRounded(r.body.pitchToLevelRad, 2)}°; force-angle margin ${degRounded(r.margins.forceAngleRad, 2)}°; energy margin ${len(u, r.margins.energyM)}.</p>` +
+    table(['wheel', `normal load (${unitSymbol('force', u)})`, 'of static (%)', 'travel (+ bump)', 'travel used (%)', ''], rows, [false, true, true, true, true, false]) +
+    `<p class="small">${esc(OF_STATIC_NOTE)} Body roll / pitch from level: ${deg(r.body.rollToLevelRad)} / ${deg(r.body.pitchToLevelRad)}; force-angle margin ${deg(r.margins.forceAngleRad)}; energy margin (CG rise to tip) ${short(u, r.margins.energyM)}.</p>` +
     '</section>'
   );
 }
 
-const BUILD_METRICS: readonly (readonly [MetricName, string, 'deg' | 'm' | 'ratio'])[] = [
-  ['ssf', 'SSF T/(2h)', 'ratio'],
-  ['cgHeightM', 'CG height with payload', 'm'],
-  ['trackMeanM', 'mean track', 'm'],
-  ['noseDownLiftRad', 'nose down: first lift', 'deg'],
-  ['noseDownTipRad', 'nose down: tip', 'deg'],
-  ['tailDownLiftRad', 'tail down: first lift', 'deg'],
-  ['tailDownTipRad', 'tail down: tip', 'deg'],
-  ['leftDownLiftRad', 'left down: first lift', 'deg'],
-  ['leftDownTipRad', 'left down: tip', 'deg'],
-  ['rightDownLiftRad', 'right down: first lift', 'deg'],
-  ['rightDownTipRad', 'right down: tip', 'deg'],
-  ['weakestTipRad', 'weakest tip (rose)', 'deg'],
-  ['passFirstLiftM', 'pass: first lift at', 'm'],
-  ['passTipM', 'pass: tip at', 'm'],
-  ['passMinForceAngleRad', 'pass: least force-angle margin', 'deg'],
-  ['passMinClearanceM', 'pass: least clearance', 'm'],
-];
-
-function buildsSection(rows: readonly BuildRow[], u: ReportUnits): string {
-  const val = (kind: 'deg' | 'm' | 'ratio', x: number | null, signed: boolean): string => {
-    if (x === null) return '–';
-    const sign = signed && x > 0 ? '+' : '';
-    if (kind === 'deg') return `${sign}${fixed(x / RAD_PER_DEG, 2)}°`;
-    if (kind === 'ratio') return `${sign}${fixed(x, 3)}`;
-    return `${sign}${fixed(u.lengthOf(x), u.length === 'm' ? 3 : 1)} ${u.length}`;
-  };
+function buildsSection(rows: readonly BuildRow[], u: U): string {
   const headers = ['', ...rows.map((r, i) => (i === 0 ? `${r.name} (reference)` : r.name))];
-  const body = BUILD_METRICS.map(([k, label, kind]) => [
-    label,
-    ...rows.map((r, i) => (i === 0 ? val(kind, r.metrics[k], false) : `${val(kind, r.metrics[k], false)} (${val(kind, r.change[k], true)})`)),
-  ]);
+  const body = BUILD_METRICS.map((m) => {
+    const unit = metricUnit(m.kind, u);
+    return [
+      unit ? `${m.label} (${unit})` : m.label,
+      ...rows.map((r, i) => (i === 0 ? metricValue(m.kind, r.metrics[m.key], u) : `${metricValue(m.kind, r.metrics[m.key], u)} (${metricValue(m.kind, r.change[m.key], u, true)})`)),
+    ];
+  });
   return (
     '<section id="builds"><h2>Build comparison</h2>' +
     '<p>Each build on a level tilt table (lift and tip each way, and the rose) and on the scenario path (pass). Changes from the reference build in brackets. How each modification is modelled is listed under the scenario.</p>' +
     table(headers, body, [false, ...rows.map(() => true)]) +
+    `<p class="small">${esc(METRICS_NOTE)}</p>` +
     '</section>'
   );
 }
 
-function bandSection(d: ReportData, u: ReportUnits): string {
+function bandSection(d: ReportData, u: U): string {
   const b = d.cgBand!;
   const names: readonly [keyof typeof b.directions, string][] = [
     ['noseDown', 'nose down'],
@@ -473,11 +497,11 @@ function bandSection(d: ReportData, u: ReportUnits): string {
   ];
   const rows = names.map(([k, label]) => {
     const x = b.directions[k];
-    return [label, `${deg2(x.liftRad[0])} to ${deg2(x.liftRad[1])}`, `${deg2(x.tipRad[0])} to ${deg2(x.tipRad[1])}`];
+    return [label, `${deg(x.liftRad[0])} to ${deg(x.liftRad[1])}`, `${deg(x.tipRad[0])} to ${deg(x.tipRad[1])}`];
   });
   return (
     '<section id="cg-band"><h2>CG height band</h2>' +
-    `<p>The CG height as weighed is known to ± ${len(u, b.toleranceM)}: from ${len(u, b.heightsM[1])} to ${len(u, b.heightsM[0])}. Lift and tip angles on a level tilt table at the high and the low end of that band (high CG first). Measure the CG height by raising one axle (SAE J874 / ISO 10392 practice) to narrow it; labs measuring the same vehicle have disagreed significantly (UMTRI round-robin, SAE 920050).</p>` +
+    `<p>The CG height as weighed is known to ± ${len(u, b.toleranceM)}: from ${len(u, b.heightsM[1])} to ${len(u, b.heightsM[0])}. Lift and tip angles (tilt from level) on a level tilt table at the high and the low end of that band (high CG first). Measure the CG height by raising one axle (SAE J874 / ISO 10392 practice) to narrow it; labs measuring the same vehicle have disagreed significantly (UMTRI round-robin, SAE 920050).</p>` +
     table(['downhill', 'first lift (high CG to low CG)', 'tip (high CG to low CG)'], rows) +
     '</section>'
   );
@@ -529,7 +553,7 @@ function methodsSection(meta: ReportMeta): string {
 
 /** The report for collected results: one HTML document as a string. */
 export function renderReportHtml(d: ReportData, meta: ReportMeta): string {
-  const u = reportUnits(d.scenario.units);
+  const u: U = meta.units ?? d.scenario.units;
   const parts: string[] = [
     '<!DOCTYPE html>',
     '<html lang="en"><head><meta charset="utf-8">',

@@ -10,15 +10,18 @@
  *   tolerance is given.
  * Pure and deterministic; takes a few seconds for a rose and a pass.
  */
-import type { Pose, SolveResult, TiltSweepResult } from '../model/types';
-import type { Scenario } from '../scenario/types';
-import { RAD_PER_DEG } from '../scenario/units';
-import { buildModel, solveEquilibrium } from '../solver/equilibrium';
-import { tiltSweep } from '../solver/tilt';
-import { TerrainField } from '../terrain/field';
-import { runPass, type PassResult, type PassStation } from '../analysis/pass';
-import { stabilityRose, type CardinalName, type RoseResult } from '../analysis/rose';
-import { MAX_BUILDS, applyBuild, cgBand, compareVehicles, staticStabilityFactor, totalCgHeightM, type AppliedBuild, type BuildRow, type BuildSpec, type CgBand } from '../analysis/builds';
+import type { Pose, SolveResult, TiltSweepResult } from '../core/model/types';
+import type { Scenario } from '../core/scenario/types';
+import { RAD_PER_DEG } from '../present/units';
+import { buildModel, solveEquilibrium } from '../core/solver/equilibrium';
+import { tiltSweep } from '../core/solver/tilt';
+import { TerrainField } from '../core/terrain/field';
+import { runPass, type PassResult, type PassStation } from '../core/analysis/pass';
+import { passOptionsOf } from '../core/analysis/passOptions';
+
+export { passOptionsOf };
+import { stabilityRose, type CardinalName, type RoseResult } from '../core/analysis/rose';
+import { AS_GIVEN, MAX_BUILDS, applyBuild, cgBand, compareVehicles, staticStabilityFactor, totalCgHeightM, type AppliedBuild, type BuildRow, type BuildSpec, type CgBand } from '../core/analysis/builds';
 
 /** The four tilt-table directions of the report, in degrees as the CLI's --downhill words give them. */
 export const REPORT_TILTS: readonly { readonly name: CardinalName; readonly label: string; readonly word: string; readonly downhillDeg: number }[] = [
@@ -53,7 +56,7 @@ export interface ReportTilt {
 export interface ReportDrawingPose {
   readonly pose: Pose;
   readonly result: SolveResult;
-  /** Why this pose: "scenario pose" or the pass station and what happens there. */
+  /** Why this pose: "the scenario pose", or what happens at the pass station (station says which). */
   readonly why: string;
   readonly station: PassStation | null;
 }
@@ -74,10 +77,6 @@ export interface ReportData {
   readonly cgBand: CgBand | null;
 }
 
-/** Options of the pass as the `pass` command runs it: the scenario's friction and (when set) its tilt. */
-export function passOptionsOf(s: Scenario): { friction: number; tilt?: Scenario['tilt'] } {
-  return s.tilt.angleRad !== 0 ? { friction: s.friction, tilt: s.tilt } : { friction: s.friction };
-}
 
 /**
  * The key station of a pass, the one drawn: the last standing station before a tip; else the
@@ -135,7 +134,7 @@ export function collectReport(s: Scenario, opts: ReportOptions = {}): ReportData
       // The station's pose solved as a scenario of its own (the solver's one answer for it).
       const r = solveEquilibrium(model, key.pose, passOptionsOf(s));
       if (r.standing) {
-        drawing = { pose: key.pose, result: r, why: `pass station ${key.index} (${key.distanceM.toFixed(2)} m along the path): ${found.why}`, station: key };
+        drawing = { pose: key.pose, result: r, why: found.why, station: key };
       }
     }
   }
@@ -144,7 +143,7 @@ export function collectReport(s: Scenario, opts: ReportOptions = {}): ReportData
     stage('builds');
     // As the compare command: the vehicle as given first (the reference), then each build.
     const applied: AppliedBuild[] = [
-      { name: 'as given', vehicle: s.vehicle, changes: ['as given'] },
+      { name: 'as given', vehicle: s.vehicle, changes: AS_GIVEN },
       ...opts.builds.slice(0, MAX_BUILDS - 1).map((b) => applyBuild(s.vehicle, b)),
     ];
     builds = compareVehicles(applied, {

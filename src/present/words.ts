@@ -1,0 +1,210 @@
+/**
+ * The words: headlines, event sentences, warnings and the cautions, written once for the app,
+ * the command line and the report. Pure: no React, three or DOM. Every angle says its datum;
+ * every margin says what it is a margin of; numbers go through units.ts (angles 0.1°, loads
+ * 3 significant figures, the reader's units).
+ */
+import type { SolveResult, SolveStatus } from '../core/model/types';
+import type { PassEvent, PassResult } from '../core/analysis/pass';
+import type { BuildChange } from '../core/analysis/builds';
+import { DEG_PER_RAD, angleText, changeText, distanceText, fixed, lengthText, massText, percentText, quantityText, shortText, toDisplay, type UnitSystem } from './units';
+
+/** Slope printed as the maximum in operator manuals of ride-on mowers, utility vehicles and ATVs
+ *  (10° when towing): common practice, no single published source (REFERENCES "Limits"). */
+export const COMMON_PRACTICE_MAX_SLOPE_DEG = 15;
+export const COMMON_PRACTICE_MAX_SLOPE_TOWING_DEG = 10;
+
+/** The short caution under every result (app panels, CLI human output). */
+export const QUASI_STATIC_CAUTION =
+  'Caution: quasi-static estimates (a slow crawl, no bounce, no driver input). Real margins are smaller; keep to the vehicle maker\'s limits, local regulations and trained practice.';
+
+/** The full caution, the same words at the top and the bottom of every report. */
+export const REPORT_CAUTIONS: readonly string[] = [
+  'These results are quasi-static estimates: the vehicle is taken to stand still, or crawl so slowly that each position is a standing one, on ground that does not give way.',
+  'Real margins are smaller: rough, soft, loose or wet ground, bounce, speed, momentum, steering, braking, wind, load shifting and tyre or suspension wear all reduce them.',
+  `Operating limits are a fraction of the static limit. Common practice: makers of utility vehicles, ATVs and ride-on mowers commonly print ${COMMON_PRACTICE_MAX_SLOPE_DEG}° as the maximum slope (${COMMON_PRACTICE_MAX_SLOPE_TOWING_DEG}° when towing), far below the static tip angles shown here. This report uses that ${COMMON_PRACTICE_MAX_SLOPE_DEG}° line as a reference only (common practice, not a published standard).`,
+  'Defer to the vehicle maker’s limits, local regulations and licensed or trained practice. Do not use this report to decide that a slope or an obstacle is safe to drive.',
+];
+
+/** Tilt-table angles: the datum, said once under each table or chart that shows them. */
+export const TILT_DATUM_NOTE = 'Tilt angles are the table\'s tilt from level (degrees), not the ground\'s slope under the vehicle where the terrain itself slopes.';
+
+/** A solve status in a word or two. */
+export function statusWords(status: SolveStatus): string {
+  switch (status) {
+    case 'converged':
+      return 'Balanced';
+    case 'tipped':
+      return 'Tipped';
+    case 'no-contact':
+      return 'No contact';
+    default:
+      return 'Not settled';
+  }
+}
+
+/** Downhill direction in words (vehicle frame, counter-clockwise from the nose). */
+export function downhillWords(downhillRad: number): string {
+  const d = (((downhillRad * DEG_PER_RAD) % 360) + 360) % 360;
+  const near = (a: number) => Math.abs(((d - a + 540) % 360) - 180) < 1e-6;
+  if (near(0)) return 'nose down';
+  if (near(90)) return 'left side down';
+  if (near(180)) return 'tail down';
+  if (near(270)) return 'right side down';
+  return `${fixed(d, 0)}° from the nose, counter-clockwise`;
+}
+
+const PART_WORDS: Readonly<Record<string, string>> = { belly: 'belly', front: 'front bumper', rear: 'rear bumper', 'front-axle': 'front axle', 'rear-axle': 'rear axle' };
+
+/** An underbody part in words. */
+export function partWords(part: string): string {
+  return PART_WORDS[part] ?? part;
+}
+
+/** "RL unloads first at 3.42 m; RL lifts at 3.90 m; smallest force-angle margin 12.3° at 5.10 m." */
+export function passHeadline(r: PassResult, units: UnitSystem): string {
+  const parts: string[] = [];
+  parts.push(
+    r.firstUnload
+      ? `${r.firstUnload.wheel} unloads first at ${distanceText(r.firstUnload.distanceM, units)}`
+      : `no wheel goes below ${percentText(r.lightShare)} of its static load`,
+  );
+  if (r.firstLift) parts.push(`${r.firstLift.wheel} lifts at ${distanceText(r.firstLift.distanceM, units)}`);
+  const c = r.minClearance;
+  const hangsUp = c !== null && c.clearanceM <= 0;
+  if (r.tip) parts.push(`tips at ${distanceText(r.tip.distanceM, units)}`);
+  // "Stands" only when nothing of the body is in the ground either.
+  else if (!hangsUp) parts.push('stands at every station');
+  if (hangsUp) parts.push(`hangs up: the ${partWords(c.part)} is ${shortText(-c.clearanceM, units)} into the ground at ${distanceText(c.distanceM, units)}`);
+  if (r.minMargin) parts.push(`smallest force-angle margin ${angleText(r.minMargin.forceAngleRad)} at ${distanceText(r.minMargin.distanceM, units)}`);
+  if (c !== null && !hangsUp) parts.push(`least underbody gap ${shortText(c.clearanceM, units)} (${partWords(c.part)}) at ${distanceText(c.distanceM, units)}`);
+  const s = parts.join('; ');
+  return `${s.charAt(0).toUpperCase()}${s.slice(1)}.`;
+}
+
+/** What an event is, without where. */
+export function eventWhat(e: PassEvent): string {
+  const who = e.wheel ?? (e.part ? partWords(e.part) : '');
+  switch (e.kind) {
+    case 'light':
+      return `${who} goes light`;
+    case 'lifted':
+      return `${who} lifts`;
+    case 'full-bump':
+      return `${who} on its bump stop`;
+    case 'full-droop':
+      return `${who} at full droop`;
+    case 'friction':
+      return `${who} needs more grip than the ground gives`;
+    case 'contact':
+      return `the ${who} touches the ground`;
+    case 'tip':
+      return 'tips: no balance remains';
+    default:
+      return `${who ? `${who} ` : ''}${String((e as { kind: string }).kind)}`;
+  }
+}
+
+/** An event with where it holds: "FL lifts from 3.40 m to 4.10 m". */
+export function eventWords(e: PassEvent, units: UnitSystem): string {
+  const from = distanceText(e.startDistanceM, units);
+  if (e.kind === 'tip') return `${eventWhat(e)} at ${from}`;
+  const to = e.endDistanceM === null ? ' to the end' : e.endDistanceM === e.startDistanceM ? '' : ` to ${distanceText(e.endDistanceM, units)}`;
+  return `${eventWhat(e)} from ${from}${to}`;
+}
+
+/**
+ * Warnings in words for one solve. Thresholds are our own choices (common practice is to keep
+ * well clear of a lift): a tyre under NEAR_LIFT_SHARE of its static load is close to lifting; a
+ * force-angle margin under NEAR_TIP_RAD is close to tipping.
+ */
+export const NEAR_LIFT_SHARE = 0.2;
+export const NEAR_TIP_RAD = (10 * Math.PI) / 180;
+
+export type WarningLevel = 'danger' | 'warning' | 'note';
+
+export interface Warning {
+  readonly level: WarningLevel;
+  readonly text: string;
+}
+
+type WarnWheel = { readonly name: string; readonly lifted: boolean; readonly loadShare: number | null; readonly frictionDemand: number | null; readonly travelFraction: number | null };
+
+export function warningsFor(r: Pick<SolveResult, 'status' | 'reason' | 'margins'> & { readonly wheels: readonly WarnWheel[] }, friction: number): Warning[] {
+  const out: Warning[] = [];
+  if (r.status === 'tipped') {
+    const edge = r.margins.weakestEdgeWheels.join('–');
+    out.push({ level: 'danger', text: `Tips over: the plumb line from the CG is outside the support${edge ? `, over the ${edge} edge` : ''}.` });
+  } else if (r.status === 'no-contact') {
+    out.push({ level: 'danger', text: `No tyre touches the ground: ${r.reason}.` });
+  } else if (r.status === 'not-converged') {
+    out.push({ level: 'warning', text: `The solve did not settle (${r.reason}); the numbers shown are not a balance.` });
+  } else if (r.status === 'unstable') {
+    out.push({ level: 'danger', text: `Does not stand: the only balance found here is unstable (${r.reason}); it goes over.` });
+  }
+  const lifted = r.wheels.filter((w) => w.lifted).map((w) => w.name);
+  if (lifted.length > 0) {
+    out.push({
+      level: 'danger',
+      text: `${lifted.join(' and ')} ${lifted.length === 1 ? 'has' : 'have'} lifted: the vehicle stands on ${4 - lifted.length} tyre${4 - lifted.length === 1 ? '' : 's'}.`,
+    });
+  }
+  for (const w of r.wheels) {
+    if (!w.lifted && w.loadShare !== null && w.loadShare < NEAR_LIFT_SHARE && r.status === 'converged') {
+      out.push({ level: 'warning', text: `${w.name} is close to lifting: ${percentText(w.loadShare)} of its static load.` });
+    }
+  }
+  if (r.status === 'converged' && r.margins.forceAngleRad < NEAR_TIP_RAD) {
+    const edge = r.margins.weakestEdgeWheels.join('–');
+    out.push({ level: 'danger', text: `Close to tipping: force-angle margin ${angleText(r.margins.forceAngleRad)}${edge ? ` about the ${edge} edge` : ''}.` });
+  }
+  for (const w of r.wheels) {
+    if (!w.lifted && w.frictionDemand !== null && w.frictionDemand > friction) {
+      out.push({ level: 'warning', text: `${w.name} needs grip ${fixed(w.frictionDemand, 2)}, more than the ground's ${fixed(friction, 2)}: it may slide.` });
+    }
+  }
+  for (const w of r.wheels) {
+    if (w.travelFraction === null) continue;
+    if (w.travelFraction <= -0.999) out.push({ level: 'note', text: `${w.name} is at full droop.` });
+    else if (w.travelFraction >= 0.999) out.push({ level: 'note', text: `${w.name} is on its bump stop.` });
+  }
+  return out;
+}
+
+/** One modification as modelled, in words and the reader's units. */
+export function buildChangeWords(c: BuildChange, units: UnitSystem): string {
+  const mm = (m: number) => shortText(m, units);
+  const signed = (m: number) => changeText('short', m, units);
+  switch (c.kind) {
+    case 'as-given':
+      return 'as given';
+    case 'tyres':
+      return `tyres: radius ${lengthText(c.radiusM, units)}; everything rides ${mm(c.riseM)} higher (CG, payload, body, roll centres)`;
+    case 'suspension-lift':
+      return `suspension lift ${mm(c.liftM)}: sprung mass (${massText(c.sprungMassKg, units)} of ${massText(c.massKg, units)}), payload and body up ${mm(c.liftM)}; CG up ${mm(c.cgRiseM)}; roll centres and travel kept`;
+    case 'body-lift':
+      return `body lift ${mm(c.liftM)}: body taken as ${percentText(c.bodyShare)} of the sprung mass (${massText(c.bodyMassKg, units)}) and the payload up ${mm(c.liftM)}; frame, belly and bumpers stay; CG up ${mm(c.cgRiseM)}`;
+    case 'wheels': {
+      const parts: string[] = [];
+      if (c.rimWidthM !== null) {
+        // Rim widths are stated in inches by the trade, whatever the system (common practice).
+        parts.push(`wheels ${fixed(toDisplay('length', c.rimWidthM, 'imperial'), 1)} in wide at ${mm(c.offsetM ?? 0)} offset${c.stockOffsetM === null ? '' : ` (stock ${mm(c.stockOffsetM)})`}`);
+      }
+      if (c.spacerM !== null) parts.push(`spacers ${mm(c.spacerM)} per side`);
+      return `${parts.join(', ')}: ${c.axle === 'both' ? 'both tracks' : `${c.axle} track`} ${signed(c.trackChangeM)}`;
+    }
+    case 'payload':
+      return `payload: ${c.labels.join(', ')} (${massText(c.massKg, units)})`;
+    case 'anti-roll':
+      return `${c.end} anti-roll bar ${c.stiffnessNmPerRad === null ? 'disconnected' : quantityText('rollStiffness', c.stiffnessNmPerRad, units)}`;
+    case 'travel':
+      return `${c.end} travel: bump ${mm(c.bumpM)}, droop ${mm(c.droopM)}`;
+    default:
+      return String((c as { kind: string }).kind);
+  }
+}
+
+/** All of a build's modifications in words, joined. */
+export function buildChangesWords(changes: readonly BuildChange[], units: UnitSystem, sep = '; '): string {
+  return changes.map((c) => buildChangeWords(c, units)).join(sep);
+}
