@@ -223,7 +223,7 @@ export function PassPanel() {
 
 function chartData(r: PassResult, units: Scenario['units']) {
   const distances = r.stations.map((s) => distanceValue(s.distanceM, units));
-  const ok = (s: PassResult['stations'][number]) => s.status === 'converged' || s.approximate;
+  const ok = (s: PassResult['stations'][number]) => !s.hungUp && (s.status === 'converged' || s.approximate);
   const loads = WHEEL_NAMES.map((name, k) => ({
     label: name,
     colour: WHEEL_COLOURS[k],

@@ -1,5 +1,5 @@
 /** `plumbline pass FILE`: crawl the scenario's path station by station; events and the headline. */
-import { WHEEL_NAMES, runPass, type PassResult, type Scenario } from '../../core/index';
+import { WHEEL_NAMES, passHeadlineText, passOutcome, runPass, type PassResult, type Scenario } from '../../core/index';
 import { EXIT_BAD_INPUT, EXIT_FAILURE, EXIT_OK, type CliIO, type CommandSpec } from '../command';
 import { formatKeyValues, formatTable } from '../format';
 import { loadScenarioFile, toJsonText } from '../load';
@@ -12,6 +12,8 @@ const PROGRESS_FROM_STATIONS = 500;
 /** The documented JSON form of a pass (metres, newtons, degrees; units in the key names). */
 export function passJson(r: PassResult): object {
   return {
+    outcome: passOutcome(r),
+    headline: passHeadlineText(r, (m) => `${m.toFixed(2)} m`),
     plannedStations: r.plannedStations,
     stepM: r.path.stepM,
     lightShare: r.lightShare,
@@ -19,6 +21,10 @@ export function passJson(r: PassResult): object {
     approximateStations: r.approximateStations,
     firstUnload: r.firstUnload ? { wheel: r.firstUnload.wheel, station: r.firstUnload.station, distanceM: round(r.firstUnload.distanceM) } : null,
     firstLift: r.firstLift ? { wheel: r.firstLift.wheel, station: r.firstLift.station, distanceM: round(r.firstLift.distanceM) } : null,
+    hangUp: r.hangUp ? { station: r.hangUp.station, distanceM: round(r.hangUp.distanceM), part: r.hangUp.part, depthM: round(r.hangUp.depthM) } : null,
+    firstSlide: r.firstSlide
+      ? { wheel: r.firstSlide.wheel, station: r.firstSlide.station, distanceM: round(r.firstSlide.distanceM), frictionDemand: round(r.firstSlide.frictionDemand) }
+      : null,
     tip: r.tip ? { station: r.tip.station, distanceM: round(r.tip.distanceM), status: r.tip.status, reason: r.tip.reason } : null,
     minMargin: r.minMargin
       ? { station: r.minMargin.station, distanceM: round(r.minMargin.distanceM), forceAngleDeg: deg(r.minMargin.forceAngleRad), energyM: round(r.minMargin.energyM) }
@@ -43,10 +49,12 @@ export function passJson(r: PassResult): object {
       headingDeg: deg(s.pose.headingRad),
       status: s.status,
       approximate: s.approximate,
+      hungUp: s.hungUp,
       wheels: Object.fromEntries(
         s.wheels.map((w, i) => [
           WHEEL_NAMES[i],
-          { loadN: round(w.loadN, 1), loadShare: round(w.loadShare), travelFraction: round(w.travelFraction), lifted: w.lifted, frictionDemand: round(w.frictionDemand) },
+          // A hung-up station's loads are of a pose the body cannot take: null, never shown as standing.
+          { loadN: s.hungUp ? null : round(w.loadN, 1), loadShare: round(w.loadShare), travelFraction: round(w.travelFraction), lifted: w.lifted, frictionDemand: round(w.frictionDemand) },
         ]),
       ),
       rollDeg: deg(s.rollRad),
@@ -78,11 +86,14 @@ function printText(s: Scenario, r: PassResult, io: CliIO, withStations: boolean)
   const len = (m: number) => `${u.lengthOf(m).toFixed(s.units === 'imperial' ? 1 : 2)} ${u.length}`;
   const at = (x: { distanceM: number; station: number }) => `at ${len(x.distanceM)} (station ${x.station})`;
   io.out(`${s.name}: ${s.vehicle.name}, ${r.stations.length} of ${r.plannedStations} stations every ${len(r.path.stepM)}`);
+  io.out(passHeadlineText(r, len));
   io.out(
     formatKeyValues([
       ['first wheel to go light', r.firstUnload ? `${r.firstUnload.wheel} ${at(r.firstUnload)} (below ${Math.round(r.lightShare * 100)} % of its level load)` : 'none'],
       ['first wheel to lift', r.firstLift ? `${r.firstLift.wheel} ${at(r.firstLift)}` : 'none'],
       ['tip', r.tip ? `${at(r.tip)}: ${r.tip.reason}; the pass stops there` : 'none'],
+      ['hangs up', r.hangUp ? `on the ${r.hangUp.part} ${at(r.hangUp)}, ${len(r.hangUp.depthM)} inside the ground; the pass stops there` : 'none'],
+      ['slides', r.firstSlide ? `${r.firstSlide.wheel} ${at(r.firstSlide)}: needs grip ${r.firstSlide.frictionDemand.toFixed(2)} on ground of ${r.friction.toFixed(2)}` : 'none'],
       [
         'smallest margin',
         r.minMargin ? `force-angle ${deg(r.minMargin.forceAngleRad, 1)}°, energy ${len(r.minMargin.energyM)} ${at(r.minMargin)}` : '–',
@@ -120,7 +131,7 @@ function printText(s: Scenario, r: PassResult, io: CliIO, withStations: boolean)
         ],
         r.stations.map((st) => [
           u.lengthOf(st.distanceM),
-          ...st.wheels.map((w) => u.forceOf(w.loadN)),
+          ...st.wheels.map((w) => (st.hungUp ? 'hung up' : u.forceOf(w.loadN))),
           deg(st.rollRad, 2),
           deg(st.pitchRad, 2),
           deg(st.forceAngleRad, 2),
@@ -140,7 +151,8 @@ export const passCommand: CommandSpec = {
   description:
     'Steps the vehicle along the scenario\'s path (from, to, step; heading along the path unless it sets one),\n' +
     'solving each station from the last. Events: a wheel light (below --light of its level load), lifted,\n' +
-    'at full bump or droop, needing more grip than the ground has; underbody contact; the tip (the pass stops).',
+    'at full bump or droop, sliding (needing more grip than the ground has); the body touching the ground;\n' +
+    'hanging up (the body inside the ground: the pass stops); the tip (the pass stops).',
   args: [{ name: 'FILE', description: 'scenario file (JSON) with a path' }],
   options: [
     { name: 'light', kind: 'number', valueName: 'SHARE', description: 'a wheel is light below this share of its level-ground load', default: 0.25 },

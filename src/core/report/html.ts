@@ -8,7 +8,7 @@
  */
 import { WHEEL_NAMES, type TerrainFeature } from '../model/types';
 import { RAD_PER_DEG } from '../scenario/units';
-import type { PassEvent } from '../analysis/pass';
+import { passHeadlineText, type PassEvent } from '../analysis/pass';
 import type { BuildRow, MetricName } from '../analysis/builds';
 import { liftAngleOf, tipAngleOf } from '../analysis/rose';
 import type { ReportData } from './collect';
@@ -294,7 +294,8 @@ function passHeadline(d: ReportData, u: ReportUnits): string {
     ['Stations', `${p.stations.length} of ${p.plannedStations} planned`],
     ['First wheel to go light', p.firstUnload ? `${p.firstUnload.wheel} at ${at(p.firstUnload.distanceM)} (below ${fixed(100 * p.lightShare, 0)} % of its level load)` : 'none'],
     ['First wheel to lift', p.firstLift ? `${p.firstLift.wheel} at ${at(p.firstLift.distanceM)}` : 'none'],
-    ['Tip', p.tip ? `at ${at(p.tip.distanceM)}: ${p.tip.reason}` : 'none: the vehicle stands all along the path'],
+    ['Outcome', passHeadlineText(p, at)],
+    ['Tip', p.tip ? `at ${at(p.tip.distanceM)}: ${p.tip.reason}` : 'none'],
     [
       'Smallest force-angle margin',
       p.minMargin ? `${deg3(p.minMargin.forceAngleRad)}° at ${at(p.minMargin.distanceM)} (energy margin there ${len(u, p.minMargin.energyM)})` : '–',
@@ -339,8 +340,9 @@ function eventText(e: PassEvent): string {
     lifted: 'lifted',
     'full-bump': 'at full bump',
     'full-droop': 'at full droop',
-    friction: 'needs more grip than the ground gives',
+    slide: 'slides: needs more grip than the ground gives',
     contact: 'underbody touches',
+    'hang-up': 'hangs up: the body is inside the ground',
     tip: 'tips',
   };
   return `${who ? `${who} ` : ''}${what[e.kind]}`;
@@ -362,7 +364,7 @@ function passSection(d: ReportData, u: ReportUnits): string {
   if (p.minMargin) marks.push({ x: p.minMargin.distanceM, label: 'least margin' });
   if (p.tip) marks.push({ x: p.tip.distanceM, label: 'tip' });
   const bands: ChartEvent[] = p.events
-    .filter((e) => e.kind === 'lifted' || e.kind === 'contact')
+    .filter((e) => e.kind === 'lifted' || e.kind === 'contact' || e.kind === 'hang-up')
     .map((e) => ({ x: e.startDistanceM, x1: e.endDistanceM ?? xs[xs.length - 1], label: eventText(e) }));
   const loadChart = lineChart(loads, {
     title: `Tyre loads (${u.force}) along the path`,
