@@ -2,6 +2,7 @@ import type { AxleSuspension, PayloadItem, Scenario } from '../../core';
 import { setIn, validate, type FieldSpec } from '../edit';
 import { usePlumb, usePlumbStore } from '../storeContext';
 import { SpecField } from './SpecField';
+import { TyreSizeField } from './TyreSizeField';
 
 const f = (label: string, si: (string | number)[], file: string, kind: FieldSpec['kind']): FieldSpec => ({ label, si: ['vehicle', ...si], file: `vehicle.${file}`, kind });
 
@@ -169,6 +170,7 @@ export function VehiclePanel() {
           />
         </label>
         <Group title="Chassis, mass and CG" specs={CHASSIS} />
+        <TyreSizeField />
         <Group title="Front tyres" specs={tyre('Front')} />
         <Group title="Rear tyres" specs={tyre('Rear')} />
         <AxleGroup end="front" />
