@@ -133,7 +133,7 @@ it('obstacle pass: the headline is the core\'s, scrubbing poses the vehicle at t
   // Play moves on along the path.
   await scrub.fill('0');
   await page.getByTestId('pass-play').click();
-  await expect.poll(async () => Number(await scrub.inputValue())).toBeGreaterThan(10);
+  await expect.poll(async () => Number(await scrub.inputValue()), { timeout: 5000 }).toBeGreaterThan(10);
   await page.getByTestId('pass-play').click();
   expect(errors).toEqual([]);
 });

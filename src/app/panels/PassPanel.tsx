@@ -165,7 +165,9 @@ export function PassPanel() {
             </div>
             {st ? (
               <p className="fineprint" data-testid="pass-station-summary">
-                {st.status === 'converged' || st.approximate
+                {st.hungUp
+                  ? 'The body is inside the ground here: the vehicle hangs up and the pass stops (these loads are not a state it can stand in).'
+                  : st.status === 'converged' || st.approximate
                   ? `Force-angle margin ${(st.forceAngleRad * DEG_PER_RAD).toFixed(1)}°, body roll ${(st.rollRad * DEG_PER_RAD).toFixed(1)}°, pitch ${(st.pitchRad * DEG_PER_RAD).toFixed(1)}°, underbody gap ${(fromSILength(st.clearanceM, units)).toFixed(units === 'metric' ? 3 : 1)} ${lengthUnit(units)}${st.approximate ? ' (approximate solve)' : ''}.`
                   : `No balance here (${st.status}): the pass stops.`}
               </p>
