@@ -9,6 +9,7 @@ import { PosePanel } from './panels/PosePanel';
 import { RosePanel } from './panels/RosePanel';
 import { TerrainPanel } from './panels/TerrainPanel';
 import { VehiclePanel } from './panels/VehiclePanel';
+import { PathPanel } from './panels/PathPanel';
 import { TiltPanel } from './panels/TiltPanel';
 import { TopBar } from './panels/TopBar';
 import { usePlumbStore } from './storeContext';
@@ -72,6 +73,7 @@ export function App({ onSceneApi }: AppProps) {
               <PassPanel />
             </Suspense>
           </PanelBoundary>
+          <PathPanel />
           <RosePanel />
           <PanelBoundary name="compare builds">
             <Suspense fallback={null}>

@@ -7,6 +7,8 @@ import { LoadColumn } from './LoadColumn';
 import { GhostVehicle } from './GhostVehicle';
 import { LoadLegend } from './LoadLegend';
 import { PathLine } from './PathLine';
+import { PathDraw } from './PathDraw';
+import { PathDrawMarkers } from './PathDrawMarkers';
 import { PlumbLine } from './PlumbLine';
 import { SceneContext, makeSceneApi, type SceneApi, type ViewPreset } from './sceneContext';
 import { SupportPolygon } from './SupportPolygon';
@@ -61,6 +63,7 @@ export function Scene({ onApi }: SceneProps) {
               <PlumbLine />
               <GhostVehicle />
               <PathLine />
+              <PathDraw />
             </TiltTable>
             <CameraRig />
             <LabelProjector />
@@ -71,6 +74,7 @@ export function Scene({ onApi }: SceneProps) {
             <WheelLabel key={i} index={i} />
           ))}
         </div>
+        <PathDrawMarkers />
         <div className="view-buttons" role="group" aria-label="Preset views">
           {PRESETS.map(([p, label]) => (
             <button key={p} type="button" data-testid={`view-${p}`} onClick={() => api.view(p)}>

@@ -77,10 +77,16 @@ export function runLines(
   headingChangesRad: SweepRange,
   onProgress: OnProgress,
 ): Job<LineSweepReply> {
-  const t0 = performance.now();
   if (!scenario.path) return failed(new Error('the scenario has no path'));
   const lines = makeLines(scenario.path, offsetsM, headingChangesRad);
   if (lines.length === 0) return failed(new Error('no lines: check the ranges'));
+  return runLineSpecs(scenario, lines, onProgress);
+}
+
+/** Given lines (a sweep's, or lines drawn on the ground) spread over the line sweep's workers and ranked. */
+export function runLineSpecs(scenario: Scenario, lines: readonly LineSpec[], onProgress: OnProgress): Job<LineSweepReply> {
+  const t0 = performance.now();
+  if (lines.length === 0) return failed(new Error('no lines to run'));
   const n = sweepWorkers(lines.length);
   const parts: LineSpec[][] = Array.from({ length: n }, () => []);
   lines.forEach((l, i) => parts[i % n].push(l));

@@ -6,3 +6,4 @@ export * from './lines';
 export * from './builds';
 export * from './cg';
 export * from './ramp';
+export * from './pathCandidates';
