@@ -74,7 +74,7 @@ export function PathPanel() {
 
   return (
     <section className="panel" aria-labelledby="path-h">
-      <details open={lines.length > 0 || drawing || undefined}>
+      <details>
         <summary>
           <h2 id="path-h">Draw a line</h2>
         </summary>
@@ -110,7 +110,7 @@ export function PathPanel() {
         {lines.length > 0 ? (
           <ol className="drawn-lines" data-testid="path-lines">
             {lines.map((l, i) => (
-              <li key={i} data-testid={`path-line-${i}`}>
+              <li key={i} data-testid={`path-line-${i}`} data-from={l.from.join(',')} data-to={l.to ? l.to.join(',') : ''}>
                 <span className="swatch" style={{ background: drawnLineColour(i) }} /> {xyText(l.from, units)} → {l.to ? xyText(l.to, units) : '(tap the end)'}{' '}
                 {complete[i] ? (
                   <button type="button" data-testid={`path-use-${i}`} onClick={() => useLine(i)}>
