@@ -7,3 +7,4 @@ export * from './builds';
 export * from './cg';
 export * from './ramp';
 export * from './pathCandidates';
+export * from './headings';
