@@ -10,6 +10,7 @@ import { RosePanel } from './panels/RosePanel';
 import { TerrainPanel } from './panels/TerrainPanel';
 import { VehiclePanel } from './panels/VehiclePanel';
 import { PathPanel } from './panels/PathPanel';
+import { HeadingSweepPanel } from './panels/HeadingSweepPanel';
 import { TiltPanel } from './panels/TiltPanel';
 import { TopBar } from './panels/TopBar';
 import { usePlumbStore } from './storeContext';
@@ -75,6 +76,7 @@ export function App({ onSceneApi }: AppProps) {
           </PanelBoundary>
           <PathPanel />
           <RosePanel />
+          <HeadingSweepPanel />
           <PanelBoundary name="compare builds">
             <Suspense fallback={null}>
               <ComparePanel />

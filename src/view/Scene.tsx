@@ -8,6 +8,7 @@ import { GhostVehicle } from './GhostVehicle';
 import { LoadLegend } from './LoadLegend';
 import { PathLine } from './PathLine';
 import { PathDraw } from './PathDraw';
+import { HeadingRose } from './HeadingRose';
 import { PathDrawMarkers } from './PathDrawMarkers';
 import { PlumbLine } from './PlumbLine';
 import { SceneContext, makeSceneApi, type SceneApi, type ViewPreset } from './sceneContext';
@@ -64,6 +65,7 @@ export function Scene({ onApi }: SceneProps) {
               <GhostVehicle />
               <PathLine />
               <PathDraw />
+              <HeadingRose />
             </TiltTable>
             <CameraRig />
             <LabelProjector />

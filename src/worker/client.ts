@@ -1,5 +1,5 @@
 /** Runs analyses in the worker with progress and cancel. One worker per job; cancel terminates it. */
-import { makeLines, rankLines, type LineSpec, type LineSummary, type RoseResult, type Scenario, type SweepRange } from '../core';
+import { TerrainField, footprintRadiusM, groundPlaneAt, headingsEvery, makeLines, rankLines, summariseHeadings, type HeadingSweepResult, type LineSpec, type LineSummary, type RoseResult, type Scenario, type SweepRange } from '../core';
 import type { ReplyOf, WorkerReply, WorkerRequest } from './messages';
 
 export interface Job<T> {
@@ -116,4 +116,40 @@ export function runLineSpecs(scenario: Scenario, lines: readonly LineSpec[], onP
 
 function failed<T>(e: Error): Job<T> {
   return { done: Promise.reject(e), cancel: () => undefined };
+}
+
+/**
+ * A heading sweep at the vehicle's spot on the scenario's ground, the headings dealt out over the
+ * same workers as a line sweep (one per core, at most four), summarised when all are back.
+ */
+export function runHeadings(scenario: Scenario, stepRad: number, onProgress: OnProgress): Job<{ readonly result: HeadingSweepResult; readonly wallMs: number; readonly workers: number }> {
+  const t0 = performance.now();
+  const { xM, yM } = scenario.pose;
+  const ground = groundPlaneAt(new TerrainField(scenario.terrain), xM, yM, footprintRadiusM(scenario.vehicle));
+  const headings = headingsEvery(stepRad);
+  const n = sweepWorkers(headings.length);
+  const parts: number[][] = Array.from({ length: n }, () => []);
+  headings.forEach((h, i) => parts[i % n].push(h));
+  const doneBy = new Array<number>(n).fill(0);
+  const jobs = parts.map((part, k) =>
+    runJob({ type: 'headings', scenario, xM, yM, ground, headingsRad: part }, (d) => {
+      doneBy[k] = d;
+      onProgress(
+        doneBy.reduce((a, b) => a + b, 0),
+        headings.length,
+      );
+    }),
+  );
+  const done = Promise.all(jobs.map((j) => j.done)).then((replies) => ({
+    result: summariseHeadings(ground, xM, yM, replies.flatMap((r) => r.results)),
+    wallMs: performance.now() - t0,
+    workers: n,
+  }));
+  done.catch(() => jobs.forEach((j) => j.cancel()));
+  return {
+    done,
+    cancel() {
+      for (const j of jobs) j.cancel();
+    },
+  };
 }

@@ -64,10 +64,10 @@ describe('a rigid vehicle on a 20° side hill, every 90°', () => {
   });
 
   it('the worst heading is side-on, its margin the extra tilt to the tip (about 26.85° more than the ground)', () => {
-    const w = r.worst.headingRad / DEG;
+    const w = r.worst!.headingRad / DEG;
     expect([0, 180]).toContain(Math.round(w));
-    expect(Math.abs(r.worst.tip!.extraRad - (Math.atan(0.8 / 0.75) - 20 * DEG))).toBeLessThan(TOL);
-    for (const h of r.headings) expect(h.tip!.extraRad).toBeGreaterThanOrEqual(r.worst.tip!.extraRad);
+    expect(Math.abs(r.worst!.tip!.extraRad - (Math.atan(0.8 / 0.75) - 20 * DEG))).toBeLessThan(TOL);
+    for (const h of r.headings) expect(h.tip!.extraRad).toBeGreaterThanOrEqual(r.worst!.tip!.extraRad);
   });
 });
 
@@ -77,7 +77,7 @@ describe('the compliant test rig on the same hill, every 30°', () => {
 
   it('stands at every heading; the worst is side-on; an oblique heading has more to spare than side-on', () => {
     expect(r.headings.every((h) => h.stands)).toBe(true);
-    expect([0, 180]).toContain(Math.round(r.worst.headingRad / DEG));
+    expect([0, 180]).toContain(Math.round(r.worst!.headingRad / DEG));
     // On a rectangle of support, a fall line at ψ from the nose meets the side edge after (T/2)/sin ψ ≥ T/2
     // of travel of the plumb point: an oblique heading tips later than side-on (plain geometry).
     const at = (deg: number) => r.headings.find((h) => Math.abs(h.headingRad - deg * DEG) < 1e-9)!;
@@ -92,11 +92,17 @@ describe('the compliant test rig on the same hill, every 30°', () => {
 describe('summary', () => {
   it('a heading that does not stand is the worst, with no extra tilt at all', () => {
     const g = { slopeRad: 0.3, fallAzimuthRad: 0, rmsM: 0, radiusM: 2 };
-    const ok: HeadingResult = { headingRad: 0, downhillRad: 0, stands: true, forceAngleRad: 0.4, firstLift: null, tip: { extraRad: 0.2, edge: ['FL', 'RL'] } };
+    const ok: HeadingResult = { headingRad: 0, downhillRad: 0, solved: true, stands: true, forceAngleRad: 0.4, firstLift: null, tip: { extraRad: 0.2, edge: ['FL', 'RL'] } };
     const bad: HeadingResult = { ...ok, headingRad: 1, stands: false, forceAngleRad: -0.1, tip: { extraRad: 0, edge: [] } };
     const s = summariseHeadings(g, 0, 0, [bad, ok]);
     expect(s.headings.map((h) => h.headingRad)).toEqual([0, 1]);
     expect(s.worst).toBe(bad);
+    // A heading the solver could not settle is no answer: left out of the worst, listed.
+    const miss: HeadingResult = { ...ok, headingRad: 2, solved: false, stands: false, forceAngleRad: 0, tip: null };
+    const s2 = summariseHeadings(g, 0, 0, [ok, miss]);
+    expect(s2.worst).toBe(ok);
+    expect(s2.unsolved).toEqual([miss]);
+    expect(summariseHeadings(g, 0, 0, [miss]).worst).toBeNull();
     expect(headingsEvery(5 * DEG)).toHaveLength(72);
     expect(() => summariseHeadings(g, 0, 0, [])).toThrow();
   });

@@ -77,6 +77,11 @@ export interface HeadingResult {
   readonly headingRad: number;
   /** The fall line's direction in the vehicle frame (as Tilt.downhillRad: 0 nose down, π/2 left side down). */
   readonly downhillRad: number;
+  /**
+   * False when the solver neither converged nor found that no equilibrium exists (a numerical miss,
+   * not a tip): the heading is then left out of the worst and listed as not solved.
+   */
+  readonly solved: boolean;
   /** Whether it stands on the ground as it is at this heading (a stable equilibrium with a positive margin). */
   readonly stands: boolean;
   /** Force-angle margin on the ground as it is (rad; ≤ 0 when it does not stand). */
@@ -112,14 +117,18 @@ export function solveHeading(model: VehicleModel, xM: number, yM: number, ground
   const pose: Pose = { xM, yM, headingRad };
   const downhillRad = downhillAt(ground, headingRad);
   const r = solveEquilibrium(model, pose, { friction });
+  if (r.status === 'not-converged') {
+    return { headingRad, downhillRad, solved: false, stands: false, forceAngleRad: 0, firstLift: null, tip: null };
+  }
   const stands = r.status === 'converged' && r.margins.forceAngleRad > 0;
   if (!stands) {
-    return { headingRad, downhillRad, stands, forceAngleRad: Math.min(0, r.margins.forceAngleRad), firstLift: null, tip: { extraRad: 0, edge: [] } };
+    return { headingRad, downhillRad, solved: true, stands, forceAngleRad: Math.min(0, r.margins.forceAngleRad), firstLift: null, tip: { extraRad: 0, edge: [] } };
   }
   const sw = tiltSweep(model, pose, { downhillRad, friction, findSlide: false, maxAngleRad: HEADING_MAX_EXTRA_RAD });
   return {
     headingRad,
     downhillRad,
+    solved: true,
     stands,
     forceAngleRad: r.margins.forceAngleRad,
     firstLift: sw.firstLift ? { wheel: sw.firstLift.wheel, extraRad: sw.firstLift.angleRad } : null,
@@ -153,23 +162,26 @@ export interface HeadingSweepResult {
   readonly yM: number;
   /** In heading order. */
   readonly headings: readonly HeadingResult[];
-  /** The heading with the least extra tilt to the tip (ties: the first in heading order). */
-  readonly worst: HeadingResult;
-  /** The heading with the least extra tilt to the first lift. */
-  readonly worstLift: HeadingResult;
+  /** The solved heading with the least extra tilt to the tip (ties: the first in heading order); null when none was solved. */
+  readonly worst: HeadingResult | null;
+  /** The solved heading with the least extra tilt to the first lift; null when none was solved. */
+  readonly worstLift: HeadingResult | null;
+  /** Headings the solver could not settle (left out of the worst). */
+  readonly unsolved: readonly HeadingResult[];
 }
 
 /** Sorts the results by heading and names the worst. Needs ≥ 1 result. */
 export function summariseHeadings(ground: GroundPlane, xM: number, yM: number, results: readonly HeadingResult[]): HeadingSweepResult {
   if (results.length === 0) throw new Error('summariseHeadings: no headings');
   const headings = [...results].sort((a, b) => a.headingRad - b.headingRad);
-  let worst = headings[0];
-  let worstLift = headings[0];
+  let worst: HeadingResult | null = null;
+  let worstLift: HeadingResult | null = null;
   for (const h of headings) {
-    if (tipExtra(h) < tipExtra(worst)) worst = h;
-    if (liftExtra(h) < liftExtra(worstLift)) worstLift = h;
+    if (!h.solved) continue;
+    if (worst === null || tipExtra(h) < tipExtra(worst)) worst = h;
+    if (worstLift === null || liftExtra(h) < liftExtra(worstLift)) worstLift = h;
   }
-  return { ground, xM, yM, headings, worst, worstLift };
+  return { ground, xM, yM, headings, worst, worstLift, unsolved: headings.filter((h) => !h.solved) };
 }
 
 /** In-process sweep: every heading at stepRad at (xM, yM) on the terrain. */
