@@ -11,6 +11,7 @@ import { TerrainPanel } from './panels/TerrainPanel';
 import { VehiclePanel } from './panels/VehiclePanel';
 import { PathPanel } from './panels/PathPanel';
 import { HeadingSweepPanel } from './panels/HeadingSweepPanel';
+import { LimitCardPanel } from './panels/LimitCardPanel';
 import { TiltPanel } from './panels/TiltPanel';
 import { TopBar } from './panels/TopBar';
 import { usePlumbStore } from './storeContext';
@@ -95,6 +96,7 @@ export function App({ onSceneApi }: AppProps) {
             </Suspense>
           </PanelBoundary>
           <TerrainPanel />
+          <LimitCardPanel />
           <PanelBoundary name="report">
             <Suspense fallback={null}>
               <ReportPanel />
