@@ -178,7 +178,7 @@ function diagram(c: CardData): string {
   const t = (n: CardinalName) => (d(n).tip ? f.deg(d(n).tip!.angleRad) : '> 89°');
   const l = (n: CardinalName) => (d(n).lift ? f.deg(d(n).lift!.angleRad) : '–');
   // Nose up the page; left side on the left.
-  return `<svg viewBox="0 0 240 200" width="62mm" height="52mm" role="img" aria-label="Tip and lift slopes by side">
+  return `<svg viewBox="0 0 240 200" style="width:70mm;height:58mm;flex:none" role="img" aria-label="Tip and lift slopes by side">
 <rect x="95" y="45" width="50" height="110" rx="8" fill="#eef1f4" stroke="#000"/>
 <path d="M120 52 l-10 14 h20 z" fill="#000"/>
 <text x="120" y="14" text-anchor="middle" font-size="11" font-weight="700">${esc(t('noseDown'))}</text>
