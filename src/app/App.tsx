@@ -12,6 +12,7 @@ import { VehiclePanel } from './panels/VehiclePanel';
 import { PathPanel } from './panels/PathPanel';
 import { HeadingSweepPanel } from './panels/HeadingSweepPanel';
 import { LimitCardPanel } from './panels/LimitCardPanel';
+import { LiveTilt } from './panels/LiveTilt';
 import { TiltPanel } from './panels/TiltPanel';
 import { TopBar } from './panels/TopBar';
 import { usePlumbStore } from './storeContext';
@@ -97,6 +98,7 @@ export function App({ onSceneApi }: AppProps) {
           </PanelBoundary>
           <TerrainPanel />
           <LimitCardPanel />
+          <LiveTilt />
           <PanelBoundary name="report">
             <Suspense fallback={null}>
               <ReportPanel />

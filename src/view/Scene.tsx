@@ -9,6 +9,7 @@ import { LoadLegend } from './LoadLegend';
 import { PathLine } from './PathLine';
 import { PathDraw } from './PathDraw';
 import { HeadingRose } from './HeadingRose';
+import { SceneHelp } from './SceneHelp';
 import { PathDrawMarkers } from './PathDrawMarkers';
 import { PlumbLine } from './PlumbLine';
 import { SceneContext, makeSceneApi, type SceneApi, type ViewPreset } from './sceneContext';
@@ -85,7 +86,7 @@ export function Scene({ onApi }: SceneProps) {
           ))}
         </div>
         <LoadLegend />
-        <div className="scene-help">Drag the body to move the vehicle, Shift + drag to turn it. Drag elsewhere to orbit, right-drag to pan, wheel to zoom.</div>
+        <SceneHelp />
       </div>
     </SceneContext.Provider>
   );

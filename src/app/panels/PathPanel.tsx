@@ -8,6 +8,7 @@ import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../storeContext';
 import { pathDrawStore, usePathDraw, type DrawnLine } from '../../view/PathDrawState';
 import { drawnLineColour } from '../../view/PathDraw';
 import './fieldkit.css';
+import { useInputKind } from './inputKind';
 
 type Done = LineSweepReply & { readonly for: Scenario; readonly drawn: readonly DrawnLine[] };
 
@@ -29,6 +30,7 @@ export function PathPanel() {
   const scenario = useScenarioPoseAside();
   const units = usePlumb((s) => s.units);
   const drawing = usePathDraw((s) => s.drawing);
+  const input = useInputKind();
   const lines = usePathDraw((s) => s.lines);
   const [done, setDone] = useState<Done | null>(null);
   const [note, setNote] = useState<string | null>(null);
@@ -80,7 +82,9 @@ export function PathPanel() {
         </summary>
         <p className="hint">
           {drawing
-            ? 'Drawing: tap or click the ground for the start, then the end (or press and drag a whole line). Drag a numbered marker to move an end.'
+            ? input === 'mouse'
+              ? 'Drawing: click the ground for the start, then the end (or press and drag a whole line). Drag a numbered marker to move an end.'
+              : `Drawing: tap the ground for the start, then the end (or draw a whole line with ${input === 'pen' ? 'the pen' : 'one finger'}). Drag a numbered marker to move an end.`
             : 'Draw candidate lines on the ground in the 3D view, make one the path for the obstacle pass, or compare them all.'}
         </p>
         <div className="buttons">
