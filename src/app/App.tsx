@@ -10,6 +10,10 @@ import { PosePanel } from './panels/PosePanel';
 import { RosePanel } from './panels/RosePanel';
 import { TerrainPanel } from './panels/TerrainPanel';
 import { VehiclePanel } from './panels/VehiclePanel';
+import { PathPanel } from './panels/PathPanel';
+import { HeadingSweepPanel } from './panels/HeadingSweepPanel';
+import { LimitCardPanel } from './panels/LimitCardPanel';
+import { LiveTilt } from './panels/LiveTilt';
 import { TiltPanel } from './panels/TiltPanel';
 import { TopBar } from './panels/TopBar';
 import { usePlumbStore } from '../store/react';
@@ -73,7 +77,9 @@ export function App({ onSceneApi }: AppProps) {
               <PassPanel />
             </Suspense>
           </PanelBoundary>
+          <PathPanel />
           <RosePanel />
+          <HeadingSweepPanel />
           <PanelBoundary name="compare builds">
             <Suspense fallback={null}>
               <ComparePanel />
@@ -92,6 +98,8 @@ export function App({ onSceneApi }: AppProps) {
             </Suspense>
           </PanelBoundary>
           <TerrainPanel />
+          <LimitCardPanel />
+          <LiveTilt />
           <PanelBoundary name="report">
             <Suspense fallback={null}>
               <ReportPanel />

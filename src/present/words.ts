@@ -5,7 +5,7 @@
  * 3 significant figures, the reader's units).
  */
 import type { SolveResult, SolveStatus } from '../core/model/types';
-import type { PassEvent, PassResult } from '../core/analysis/pass';
+import { passOutcome, type PassEvent, type PassResult } from '../core/analysis/pass';
 import type { BuildChange } from '../core/analysis/builds';
 import { DEG_PER_RAD, angleText, changeText, distanceText, fixed, lengthText, massText, percentText, quantityText, shortText, toDisplay, type UnitSystem } from './units';
 
@@ -61,23 +61,42 @@ export function partWords(part: string): string {
   return PART_WORDS[part] ?? part;
 }
 
-/** "RL unloads first at 3.42 m; RL lifts at 3.90 m; smallest force-angle margin 12.3° at 5.10 m." */
+/**
+ * The pass headline, once for the app, the CLI and the report: the outcome leads (tips, hangs up,
+ * slides or stands all along), then the first wheel to go light and to lift, the smallest
+ * force-angle margin and the least underbody gap. Grip figures to 2 decimals (a friction
+ * coefficient is not known better than that).
+ */
 export function passHeadline(r: PassResult, units: UnitSystem): string {
+  const at = (m: number) => distanceText(m, units);
+  const o = passOutcome(r);
   const parts: string[] = [];
+  switch (o.kind) {
+    case 'tips':
+      parts.push(`tips at ${at(o.distanceM)}: the pass stops there`);
+      break;
+    case 'hangs-up':
+      parts.push(`hangs up on the ${partWords(o.part)} at ${at(o.distanceM)} (the body ${shortText(o.depthM, units)} inside the ground): the pass stops there`);
+      break;
+    case 'slides':
+      parts.push(`slides at ${at(o.distanceM)}: ${o.wheel} needs grip ${fixed(o.frictionDemand, 2)} on ground of ${fixed(o.friction, 2)}, it cannot climb without slipping`);
+      break;
+    case 'stands':
+      parts.push('stands all along the path');
+  }
+  // A slide is shown even when a later hang-up leads.
+  if (o.kind === 'hangs-up' && r.firstSlide && r.hangUp && r.firstSlide.station < r.hangUp.station) {
+    parts.push(`slides first at ${at(r.firstSlide.distanceM)} (${r.firstSlide.wheel} needs grip ${fixed(r.firstSlide.frictionDemand, 2)} on ground of ${fixed(r.friction, 2)})`);
+  }
   parts.push(
     r.firstUnload
-      ? `${r.firstUnload.wheel} unloads first at ${distanceText(r.firstUnload.distanceM, units)}`
+      ? `${r.firstUnload.wheel} unloads first at ${at(r.firstUnload.distanceM)}`
       : `no wheel goes below ${percentText(r.lightShare)} of its static load`,
   );
-  if (r.firstLift) parts.push(`${r.firstLift.wheel} lifts at ${distanceText(r.firstLift.distanceM, units)}`);
+  if (r.firstLift) parts.push(`${r.firstLift.wheel} lifts at ${at(r.firstLift.distanceM)}`);
+  if (r.minMargin) parts.push(`smallest force-angle margin ${angleText(r.minMargin.forceAngleRad)} at ${at(r.minMargin.distanceM)}`);
   const c = r.minClearance;
-  const hangsUp = c !== null && c.clearanceM <= 0;
-  if (r.tip) parts.push(`tips at ${distanceText(r.tip.distanceM, units)}`);
-  // "Stands" only when nothing of the body is in the ground either.
-  else if (!hangsUp) parts.push('stands at every station');
-  if (hangsUp) parts.push(`hangs up: the ${partWords(c.part)} is ${shortText(-c.clearanceM, units)} into the ground at ${distanceText(c.distanceM, units)}`);
-  if (r.minMargin) parts.push(`smallest force-angle margin ${angleText(r.minMargin.forceAngleRad)} at ${distanceText(r.minMargin.distanceM, units)}`);
-  if (c !== null && !hangsUp) parts.push(`least underbody gap ${shortText(c.clearanceM, units)} (${partWords(c.part)}) at ${distanceText(c.distanceM, units)}`);
+  if (c !== null && c.clearanceM > 0) parts.push(`least underbody gap ${shortText(c.clearanceM, units)} (${partWords(c.part)}) at ${at(c.distanceM)}`);
   const s = parts.join('; ');
   return `${s.charAt(0).toUpperCase()}${s.slice(1)}.`;
 }
@@ -94,8 +113,10 @@ export function eventWhat(e: PassEvent): string {
       return `${who} on its bump stop`;
     case 'full-droop':
       return `${who} at full droop`;
-    case 'friction':
-      return `${who} needs more grip than the ground gives`;
+    case 'slide':
+      return `${who} slides: needs more grip than the ground gives`;
+    case 'hang-up':
+      return `hangs up on the ${who}: the body is inside the ground`;
     case 'contact':
       return `the ${who} touches the ground`;
     case 'tip':

@@ -337,7 +337,9 @@ function passHeadline(d: ReportData, u: U): string {
     ['Stations', `${p.stations.length} of ${p.plannedStations} planned`],
     ['First wheel to go light', p.firstUnload ? `${p.firstUnload.wheel} at ${dist(u, p.firstUnload.distanceM)} (below ${percentText(p.lightShare)} of static)` : 'none'],
     ['First wheel to lift', p.firstLift ? `${p.firstLift.wheel} at ${dist(u, p.firstLift.distanceM)}` : 'none'],
-    ['Tip', p.tip ? `at ${dist(u, p.tip.distanceM)}: ${p.tip.reason}` : 'none: the vehicle stands at every station'],
+    ['Tip', p.tip ? `at ${dist(u, p.tip.distanceM)}: ${p.tip.reason}` : 'none'],
+    ['Hangs up', p.hangUp ? `on the ${partWords(p.hangUp.part)} at ${dist(u, p.hangUp.distanceM)} (the body ${short(u, p.hangUp.depthM)} inside the ground)` : 'none'],
+    ['Slides', p.firstSlide ? `${p.firstSlide.wheel} at ${dist(u, p.firstSlide.distanceM)} (needs grip ${fixed(p.firstSlide.frictionDemand, 2)} on ground of ${fixed(p.friction, 2)})` : 'none'],
     [
       'Smallest force-angle margin',
       p.minMargin ? `${deg(p.minMargin.forceAngleRad)} at ${dist(u, p.minMargin.distanceM)} (energy margin there ${short(u, p.minMargin.energyM)})` : NO_VALUE,
@@ -400,7 +402,7 @@ function passSection(d: ReportData, u: U): string {
   if (p.tip) marks.push({ x: at(p.tip.distanceM), label: 'tip' });
   const lastX = xs.length > 0 ? xs[xs.length - 1] : 0;
   const bands: ChartEvent[] = p.events
-    .filter((e) => e.kind === 'lifted' || e.kind === 'contact')
+    .filter((e) => e.kind === 'lifted' || e.kind === 'contact' || e.kind === 'hang-up')
     .map((e) => ({ x: at(e.startDistanceM), x1: e.endDistanceM === null ? lastX : at(e.endDistanceM), label: eventWhat(e) }));
   const fu = unitSymbol('force', u);
   const su = unitSymbol('short', u);

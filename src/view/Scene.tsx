@@ -7,6 +7,10 @@ import { LoadColumn } from './LoadColumn';
 import { GhostVehicle } from './GhostVehicle';
 import { LoadLegend } from './LoadLegend';
 import { PathLine } from './PathLine';
+import { PathDraw } from './PathDraw';
+import { HeadingRose } from './HeadingRose';
+import { SceneHelp } from './SceneHelp';
+import { PathDrawMarkers } from './PathDrawMarkers';
 import { PlumbLine } from './PlumbLine';
 import { SceneContext, makeSceneApi, type SceneApi, type ViewPreset } from './sceneContext';
 import { SupportPolygon } from './SupportPolygon';
@@ -61,6 +65,8 @@ export function Scene({ onApi }: SceneProps) {
               <PlumbLine />
               <GhostVehicle />
               <PathLine />
+              <PathDraw />
+              <HeadingRose />
             </TiltTable>
             <CameraRig />
             <LabelProjector />
@@ -71,6 +77,7 @@ export function Scene({ onApi }: SceneProps) {
             <WheelLabel key={i} index={i} />
           ))}
         </div>
+        <PathDrawMarkers />
         <div className="view-buttons" role="group" aria-label="Preset views">
           {PRESETS.map(([p, label]) => (
             <button key={p} type="button" data-testid={`view-${p}`} onClick={() => api.view(p)}>
@@ -79,7 +86,7 @@ export function Scene({ onApi }: SceneProps) {
           ))}
         </div>
         <LoadLegend />
-        <div className="scene-help">Drag the body to move the vehicle, Shift + drag to turn it. Drag elsewhere (or one finger) to orbit, right-drag or two fingers to pan, wheel or pinch to zoom.</div>
+        <SceneHelp />
       </div>
     </SceneContext.Provider>
   );

@@ -12,6 +12,7 @@ import {
   compareVehicles,
   passOptionsOf,
   rankLines,
+  runHeadingJob,
   runLineSweepJob,
   stabilityRose,
   type AppliedBuild,
@@ -60,6 +61,14 @@ function handle(req: WorkerRequest): void {
     case 'lines': {
       const summaries = runLineSweepJob({ vehicle: s.vehicle, terrain: s.terrain, options: passOptionsOf(s), lines: req.lines }, (_x, d, t) => progress(d, t));
       post({ type: 'lines', id: req.id, summaries, wallMs: performance.now() - t0 });
+      return;
+    }
+    case 'headings': {
+      const results = runHeadingJob(
+        { vehicle: s.vehicle, terrain: s.terrain, xM: req.xM, yM: req.yM, ground: req.ground, headingsRad: req.headingsRad, friction: s.friction },
+        (d, t) => progress(d, t),
+      );
+      post({ type: 'headings', id: req.id, results, wallMs: performance.now() - t0 });
       return;
     }
     case 'report': {

@@ -3,7 +3,7 @@
  * Workers fail loudly: a crash, an unreadable message or silence past the watchdog ends the worker,
  * re-runs the job once in a fresh one, and then fails with the reason (the panel shows it).
  */
-import { makeLines, rankLines, type LineSpec, type LineSummary, type RoseResult, type Scenario, type SweepRange } from '../core';
+import { TerrainField, footprintRadiusM, groundPlaneAt, headingsEvery, makeLines, rankLines, summariseHeadings, type HeadingSweepResult, type LineSpec, type LineSummary, type RoseResult, type Scenario, type SweepRange } from '../core';
 import type { ReplyOf, WorkerReply, WorkerRequest } from './messages';
 
 export interface Job<T> {
@@ -140,10 +140,16 @@ export function runLines(
   headingChangesRad: SweepRange,
   onProgress: OnProgress,
 ): Job<LineSweepReply> {
-  const t0 = performance.now();
   if (!scenario.path) return failed(new Error('the scenario has no path'));
   const lines = makeLines(scenario.path, offsetsM, headingChangesRad);
   if (lines.length === 0) return failed(new Error('no lines: check the ranges'));
+  return runLineSpecs(scenario, lines, onProgress);
+}
+
+/** Given lines (a sweep's, or lines drawn on the ground) spread over the line sweep's workers and ranked. */
+export function runLineSpecs(scenario: Scenario, lines: readonly LineSpec[], onProgress: OnProgress): Job<LineSweepReply> {
+  const t0 = performance.now();
+  if (lines.length === 0) return failed(new Error('no lines to run'));
   const n = sweepWorkers(lines.length);
   const parts: LineSpec[][] = Array.from({ length: n }, () => []);
   lines.forEach((l, i) => parts[i % n].push(l));
@@ -173,4 +179,40 @@ export function runLines(
 
 function failed<T>(e: Error): Job<T> {
   return { done: Promise.reject(e), cancel: () => undefined };
+}
+
+/**
+ * A heading sweep at the vehicle's spot on the scenario's ground, the headings dealt out over the
+ * same workers as a line sweep (one per core, at most four), summarised when all are back.
+ */
+export function runHeadings(scenario: Scenario, stepRad: number, onProgress: OnProgress): Job<{ readonly result: HeadingSweepResult; readonly wallMs: number; readonly workers: number }> {
+  const t0 = performance.now();
+  const { xM, yM } = scenario.pose;
+  const ground = groundPlaneAt(new TerrainField(scenario.terrain), xM, yM, footprintRadiusM(scenario.vehicle));
+  const headings = headingsEvery(stepRad);
+  const n = sweepWorkers(headings.length);
+  const parts: number[][] = Array.from({ length: n }, () => []);
+  headings.forEach((h, i) => parts[i % n].push(h));
+  const doneBy = new Array<number>(n).fill(0);
+  const jobs = parts.map((part, k) =>
+    runJob({ type: 'headings', scenario, xM, yM, ground, headingsRad: part }, (d) => {
+      doneBy[k] = d;
+      onProgress(
+        doneBy.reduce((a, b) => a + b, 0),
+        headings.length,
+      );
+    }),
+  );
+  const done = Promise.all(jobs.map((j) => j.done)).then((replies) => ({
+    result: summariseHeadings(ground, xM, yM, replies.flatMap((r) => r.results)),
+    wallMs: performance.now() - t0,
+    workers: n,
+  }));
+  done.catch(() => jobs.forEach((j) => j.cancel()));
+  return {
+    done,
+    cancel() {
+      for (const j of jobs) j.cancel();
+    },
+  };
 }

@@ -87,7 +87,9 @@ it('obstacle pass: the headline is the core\'s, scrubbing poses the vehicle at t
   const headline = page.getByTestId('pass-headline');
   await headline.waitFor({ timeout: 60_000 });
   const text = (await headline.textContent()) ?? '';
-  const m = /^(FL|FR|RL|RR) unloads first at (\d+\.\d\d) m/.exec(text);
+  // The outcome leads: the demo's belly hangs up on the boulder (src/core/analysis/pass.ts).
+  expect(text).toMatch(/^Hangs up on the belly at \d+\.\d\d m/);
+  const m = /(FL|FR|RL|RR) unloads first at (\d+\.\d\d) m/.exec(text);
   expect(m, text).not.toBeNull();
   expect(m![1]).toBe(pass.firstUnload!.wheel);
   expect(Number(m![2])).toBeCloseTo(pass.firstUnload!.distanceM, 2);
@@ -131,7 +133,7 @@ it('obstacle pass: the headline is the core\'s, scrubbing poses the vehicle at t
   // Play moves on along the path.
   await scrub.fill('0');
   await page.getByTestId('pass-play').click();
-  await expect.poll(async () => Number(await scrub.inputValue())).toBeGreaterThan(10);
+  await expect.poll(async () => Number(await scrub.inputValue()), { timeout: 5000 }).toBeGreaterThan(10);
   await page.getByTestId('pass-play').click();
   expect(errors).toEqual([]);
 });

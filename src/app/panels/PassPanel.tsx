@@ -166,7 +166,9 @@ export function PassPanel() {
             </div>
             {st ? (
               <p className="fineprint" data-testid="pass-station-summary">
-                {st.status === 'converged' || st.approximate
+                {st.hungUp
+                  ? 'The body is inside the ground here: the vehicle hangs up and the pass stops (these loads are not a state it can stand in).'
+                  : st.status === 'converged' || st.approximate
                   ? `Force-angle margin ${angleText(st.forceAngleRad)}, body roll ${angleText(st.rollRad)} and pitch ${angleText(st.pitchRad)} from level, underbody gap ${shortText(st.clearanceM, units)}${st.approximate ? ' (approximate solve)' : ''}.`
                   : `No balance here (${st.status}): the pass stops.`}
               </p>
@@ -224,7 +226,7 @@ export function PassPanel() {
 
 function chartData(r: PassResult, units: Scenario['units']) {
   const distances = r.stations.map((s) => toDisplay('distance', s.distanceM, units));
-  const ok = (s: PassResult['stations'][number]) => s.status === 'converged' || s.approximate;
+  const ok = (s: PassResult['stations'][number]) => !s.hungUp && (s.status === 'converged' || s.approximate);
   const loads = WHEEL_NAMES.map((name, k) => ({
     label: name,
     colour: WHEEL_COLOURS[k],

@@ -2,6 +2,7 @@ import { AXLE_FIELDS, BODY_FIELDS, PAYLOAD_FIELDS, TYRE_FIELDS, VEHICLE_FIELDS, 
 import { setIn, validate, type FieldSpec, type Key } from '../edit';
 import { usePlumb, usePlumbStore } from '../../store/react';
 import { SpecField } from './SpecField';
+import { TyreSizeField } from './TyreSizeField';
 
 /**
  * The forms come from the scenario's field table (core/scenario/fields.ts): one SpecField per row,
@@ -137,6 +138,7 @@ export function VehiclePanel() {
           />
         </label>
         <Group title="Chassis, mass and CG" specs={CHASSIS} />
+        <TyreSizeField />
         <Group title="Front tyres" specs={tyre('Front')} />
         <Group title="Rear tyres" specs={tyre('Rear')} />
         <AxleGroup end="front" />

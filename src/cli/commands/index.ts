@@ -12,9 +12,10 @@ import { roseCommand } from './rose';
 import { linesCommand } from './lines';
 import { compareCommand } from './compare';
 import { cgCommand } from './cg';
+import { cardCommand } from './card';
 
 /** Every command, in the order `plumbline --help` lists them. */
-export const COMMANDS: readonly CommandSpec[] = [checkCommand, poseCommand, tiltCommand, reportCommand, passCommand, roseCommand, linesCommand, compareCommand, cgCommand];
+export const COMMANDS: readonly CommandSpec[] = [checkCommand, poseCommand, tiltCommand, reportCommand, passCommand, roseCommand, linesCommand, compareCommand, cgCommand, cardCommand];
 
 export function findCommand(name: string): CommandSpec | undefined {
   return COMMANDS.find((c) => c.name === name);

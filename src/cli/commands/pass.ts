@@ -1,11 +1,11 @@
 /** `plumbline pass FILE`: crawl the scenario's path station by station; events and the headline. */
-import { WHEEL_NAMES, runPass, type PassResult, type Scenario } from '../../core/index';
+import { WHEEL_NAMES, passOutcome, runPass, type PassResult, type Scenario } from '../../core/index';
 import { EXIT_BAD_INPUT, EXIT_FAILURE, EXIT_OK, type CliIO, type CommandSpec } from '../command';
 import { UNITS_OPTION, formatKeyValues, formatTable, outputUnits, quantityColumn } from '../format';
 import { loadScenarioFile, toJsonText } from '../load';
 import { modelOf } from '../solveScenario';
 import { deg, formatCsv, progressReporter, round } from '../analysisOutput';
-import { NO_VALUE, angleText, distanceText, percentText, shortText, valueText, type UnitSystem } from '../../present/units';
+import { NO_VALUE, angleText, distanceText, fixed, percentText, shortText, valueText, type UnitSystem } from '../../present/units';
 import { QUASI_STATIC_CAUTION, eventWhat, partWords, passHeadline } from '../../present/words';
 
 /** Stations from which a pass reports progress on stderr. */
@@ -14,6 +14,8 @@ const PROGRESS_FROM_STATIONS = 500;
 /** The documented JSON form of a pass (metres, newtons, degrees; units in the key names). */
 export function passJson(r: PassResult): object {
   return {
+    outcome: passOutcome(r),
+    headline: passHeadline(r, 'metric'),
     plannedStations: r.plannedStations,
     stepM: r.path.stepM,
     lightShare: r.lightShare,
@@ -21,6 +23,10 @@ export function passJson(r: PassResult): object {
     approximateStations: r.approximateStations,
     firstUnload: r.firstUnload ? { wheel: r.firstUnload.wheel, station: r.firstUnload.station, distanceM: round(r.firstUnload.distanceM) } : null,
     firstLift: r.firstLift ? { wheel: r.firstLift.wheel, station: r.firstLift.station, distanceM: round(r.firstLift.distanceM) } : null,
+    hangUp: r.hangUp ? { station: r.hangUp.station, distanceM: round(r.hangUp.distanceM), part: r.hangUp.part, depthM: round(r.hangUp.depthM) } : null,
+    firstSlide: r.firstSlide
+      ? { wheel: r.firstSlide.wheel, station: r.firstSlide.station, distanceM: round(r.firstSlide.distanceM), frictionDemand: round(r.firstSlide.frictionDemand) }
+      : null,
     tip: r.tip ? { station: r.tip.station, distanceM: round(r.tip.distanceM), status: r.tip.status, reason: r.tip.reason } : null,
     minMargin: r.minMargin
       ? { station: r.minMargin.station, distanceM: round(r.minMargin.distanceM), forceAngleDeg: deg(r.minMargin.forceAngleRad), energyM: round(r.minMargin.energyM) }
@@ -45,10 +51,12 @@ export function passJson(r: PassResult): object {
       headingDeg: deg(s.pose.headingRad),
       status: s.status,
       approximate: s.approximate,
+      hungUp: s.hungUp,
       wheels: Object.fromEntries(
         s.wheels.map((w, i) => [
           WHEEL_NAMES[i],
-          { loadN: round(w.loadN, 1), loadShare: round(w.loadShare), travelFraction: round(w.travelFraction), lifted: w.lifted, frictionDemand: round(w.frictionDemand) },
+          // A hung-up station's loads are of a pose the body cannot take: null, never shown as standing.
+          { loadN: s.hungUp ? null : round(w.loadN, 1), loadShare: round(w.loadShare), travelFraction: round(w.travelFraction), lifted: w.lifted, frictionDemand: round(w.frictionDemand) },
         ]),
       ),
       rollDeg: deg(s.rollRad),
@@ -85,6 +93,8 @@ function printText(s: Scenario, r: PassResult, io: CliIO, withStations: boolean,
       ['first wheel to go light', r.firstUnload ? `${r.firstUnload.wheel} ${at(r.firstUnload)} (below ${percentText(r.lightShare)} of static)` : 'none'],
       ['first wheel to lift', r.firstLift ? `${r.firstLift.wheel} ${at(r.firstLift)}` : 'none'],
       ['tip', r.tip ? `${at(r.tip)}: ${r.tip.reason}; the pass stops there` : 'none'],
+      ['hangs up', r.hangUp ? `on the ${partWords(r.hangUp.part)} ${at(r.hangUp)}, ${shortText(r.hangUp.depthM, u)} inside the ground; the pass stops there` : 'none'],
+      ['slides', r.firstSlide ? `${r.firstSlide.wheel} ${at(r.firstSlide)}: needs grip ${fixed(r.firstSlide.frictionDemand, 2)} on ground of ${fixed(r.friction, 2)}` : 'none'],
       [
         'smallest margin',
         r.minMargin ? `force-angle ${angleText(r.minMargin.forceAngleRad)}, energy (CG rise to tip) ${shortText(r.minMargin.energyM, u)} ${at(r.minMargin)}` : NO_VALUE,
@@ -122,7 +132,7 @@ function printText(s: Scenario, r: PassResult, io: CliIO, withStations: boolean,
         ],
         r.stations.map((st) => [
           valueText('distance', st.distanceM, u),
-          ...st.wheels.map((w) => valueText('force', w.loadN as number | null, u)),
+          ...st.wheels.map((w) => (st.hungUp ? 'hung up' : valueText('force', w.loadN as number | null, u))),
           valueText('angle', st.rollRad, u),
           valueText('angle', st.pitchRad, u),
           valueText('angle', st.forceAngleRad, u),
@@ -143,7 +153,8 @@ export const passCommand: CommandSpec = {
   description:
     'Steps the vehicle along the scenario\'s path (from, to, step; heading along the path unless it sets one),\n' +
     'solving each station from the last. Events: a wheel light (below --light of its level load), lifted,\n' +
-    'at full bump or droop, needing more grip than the ground has; underbody contact; the tip (the pass stops).',
+    'at full bump or droop, sliding (needing more grip than the ground has); the body touching the ground;\n' +
+    'hanging up (the body inside the ground: the pass stops); the tip (the pass stops).',
   args: [{ name: 'FILE', description: 'scenario file (JSON) with a path' }],
   options: [
     { name: 'light', kind: 'number', valueName: 'SHARE', description: 'a wheel is light below this share of its level-ground load', default: 0.25 },

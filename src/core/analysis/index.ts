@@ -8,3 +8,5 @@ export * from './builds';
 export * from './cg';
 export * from './ramp';
 export * from './passOptions';
+export * from './pathCandidates';
+export * from './headings';

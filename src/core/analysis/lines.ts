@@ -52,7 +52,9 @@ export interface LineSummary {
   readonly firstUnload: { readonly wheel: WheelName; readonly distanceM: number } | null;
   readonly firstLift: { readonly wheel: WheelName; readonly distanceM: number } | null;
   readonly tip: { readonly distanceM: number; readonly reason: string } | null;
-  /** Smallest force-angle margin over the line (≤ 0 at a tip), where, and the energy margin there. */
+  /** Where the body outline is inside the ground (the line cannot be driven past it); absent or null when it never is. */
+  readonly hangUp?: { readonly distanceM: number; readonly part: string } | null;
+  /** Smallest force-angle margin over the line (≤ 0 at a tip or a hang-up), where, and the energy margin there. */
   readonly minForceAngleRad: number;
   readonly minMarginDistanceM: number;
   readonly energyAtMinM: number;
@@ -123,7 +125,9 @@ export function summariseLine(line: LineSpec, r: PassResult): LineSummary {
     firstUnload: r.firstUnload ? { wheel: r.firstUnload.wheel, distanceM: r.firstUnload.distanceM } : null,
     firstLift: r.firstLift ? { wheel: r.firstLift.wheel, distanceM: r.firstLift.distanceM } : null,
     tip: r.tip ? { distanceM: r.tip.distanceM, reason: r.tip.reason } : null,
-    minForceAngleRad: r.minMargin ? r.minMargin.forceAngleRad : 0,
+    hangUp: r.hangUp ? { distanceM: r.hangUp.distanceM, part: r.hangUp.part } : null,
+    // A line that hangs up cannot be driven: it ranks with the lines that tip (margin ≤ 0).
+    minForceAngleRad: r.minMargin ? (r.hangUp ? Math.min(0, r.minMargin.forceAngleRad) : r.minMargin.forceAngleRad) : 0,
     minMarginDistanceM: r.minMargin ? r.minMargin.distanceM : 0,
     energyAtMinM: r.minMargin ? r.minMargin.energyM : 0,
     minClearanceM: r.minClearance ? r.minClearance.clearanceM : Infinity,

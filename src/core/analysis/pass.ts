@@ -69,9 +69,27 @@ export interface PassStation {
   readonly clearanceM: number;
   readonly clearancePointWorld: readonly [number, number, number];
   readonly clearancePart: UnderbodyPart;
+  /**
+   * True at the station where the body outline is inside the ground by more than HANG_UP_DEPTH_M:
+   * the vehicle hangs up there (a hard stop; the pass ends). Its solve ignores the body, so its loads
+   * are not a state the vehicle can be in and are never shown as standing.
+   */
+  readonly hungUp: boolean;
 }
 
-export type PassEventKind = 'light' | 'lifted' | 'full-bump' | 'full-droop' | 'friction' | 'contact' | 'tip';
+/**
+ * Depth of the body outline inside the ground from which the vehicle hangs up (m). Below it the
+ * body touches ('contact'): the outline is a box sampled on a grid, so it cannot tell a graze from
+ * a touch at finer than about a centimetre (our own choice of resolution, not a published figure).
+ */
+export const HANG_UP_DEPTH_M = 0.01;
+
+/**
+ * light, lifted, full-bump, full-droop: a wheel's state. slide: the wheel needs more grip than the
+ * ground gives (it slips; the vehicle cannot climb there without slipping). contact: the body outline
+ * touches the ground. hang-up: the body outline is inside the ground (the pass stops). tip: no balance.
+ */
+export type PassEventKind = 'light' | 'lifted' | 'full-bump' | 'full-droop' | 'slide' | 'contact' | 'hang-up' | 'tip';
 
 export interface PassEvent {
   readonly kind: PassEventKind;
@@ -97,6 +115,10 @@ export interface PassResult {
   /** First wheel to go light (below lightShare), and where. */
   readonly firstUnload: { readonly wheel: WheelName; readonly station: number; readonly distanceM: number } | null;
   readonly firstLift: { readonly wheel: WheelName; readonly station: number; readonly distanceM: number } | null;
+  /** Where the body outline is inside the ground (belly, bumper or axle on a rock or ledge): the pass stops there. */
+  readonly hangUp: { readonly station: number; readonly distanceM: number; readonly part: UnderbodyPart; readonly depthM: number } | null;
+  /** First station where a wheel needs more grip than the ground gives: the wheel, its demand and where. */
+  readonly firstSlide: { readonly wheel: WheelName; readonly station: number; readonly distanceM: number; readonly frictionDemand: number } | null;
   /** Where no equilibrium remains (or the margin goes negative): the pass stops there. */
   readonly tip: { readonly station: number; readonly distanceM: number; readonly status: SolveStatus; readonly reason: string } | null;
   /** Station of the smallest force-angle margin, its value and the energy margin there (a tip counts, at ≤ 0). */
@@ -119,7 +141,7 @@ export function stationCount(path: PathSpec): number {
 }
 
 const K_LIGHT = 0, K_LIFT = 1, K_BUMP = 2, K_DROOP = 3, K_FRICTION = 4;
-const WHEEL_KINDS: readonly PassEventKind[] = ['light', 'lifted', 'full-bump', 'full-droop', 'friction'];
+const WHEEL_KINDS: readonly PassEventKind[] = ['light', 'lifted', 'full-bump', 'full-droop', 'slide'];
 
 function standing(r: SolveResult): boolean {
   return r.status === 'converged' && r.margins.forceAngleRad >= 0;
@@ -180,6 +202,8 @@ export function runPass(model: VehicleModel, path: PathSpec, opts: PassOptions =
   let firstUnload: PassResult['firstUnload'] = null;
   let firstLift: PassResult['firstLift'] = null;
   let tip: PassResult['tip'] = null;
+  let hangUp: PassResult['hangUp'] = null;
+  let firstSlide: PassResult['firstSlide'] = null;
   let minMargin: PassResult['minMargin'] = null;
   let minClearance: PassResult['minClearance'] = null;
   let evaluations = 0;
@@ -205,6 +229,7 @@ export function runPass(model: VehicleModel, path: PathSpec, opts: PassOptions =
     const ok = approximate || standing(r);
     if (approximate) approximateStations++;
     const clearance = sampler.measure(model.field, r, pose.xM, pose.yM, heading);
+    const hungUp = ok && clearance.minM < -HANG_UP_DEPTH_M;
     const w = r.wheels;
     const station: PassStation = {
       index: i,
@@ -220,6 +245,7 @@ export function runPass(model: VehicleModel, path: PathSpec, opts: PassOptions =
       clearanceM: clearance.minM,
       clearancePointWorld: clearance.pointWorld,
       clearancePart: clearance.part,
+      hungUp,
     };
     stations.push(station);
     opts.onStation?.(station, r);
@@ -239,13 +265,20 @@ export function runPass(model: VehicleModel, path: PathSpec, opts: PassOptions =
       opts.onProgress?.(i + 1, total);
       break;
     }
+    if (minClearance === null || clearance.minM < minClearance.clearanceM) {
+      minClearance = { station: i, distanceM: s, clearanceM: clearance.minM, part: clearance.part };
+    }
+    if (hungUp) {
+      // A hard stop: the body is inside the ground, so the vehicle cannot stand here or go on.
+      hangUp = { station: i, distanceM: s, part: clearance.part, depthM: -clearance.minM };
+      close('hang-up', null, clearance.part, i, null);
+      opts.onProgress?.(i + 1, total);
+      break;
+    }
     warm = r.state;
 
     if (minMargin === null || r.margins.forceAngleRad < minMargin.forceAngleRad) {
       minMargin = { station: i, distanceM: s, forceAngleRad: r.margins.forceAngleRad, energyM: r.margins.energyM };
-    }
-    if (minClearance === null || clearance.minM < minClearance.clearanceM) {
-      minClearance = { station: i, distanceM: s, clearanceM: clearance.minM, part: clearance.part };
     }
 
     for (let k = 0; k < 4; k++) {
@@ -265,6 +298,7 @@ export function runPass(model: VehicleModel, path: PathSpec, opts: PassOptions =
           openWheel[slot] = i;
           if (e === K_LIGHT && firstUnload === null) firstUnload = { wheel: WHEEL_NAMES[k], station: i, distanceM: s };
           if (e === K_LIFT && firstLift === null) firstLift = { wheel: WHEEL_NAMES[k], station: i, distanceM: s };
+          if (e === K_FRICTION && firstSlide === null) firstSlide = { wheel: WHEEL_NAMES[k], station: i, distanceM: s, frictionDemand: wk.frictionDemand ?? 0 };
         } else if (!on && openWheel[slot] >= 0) {
           close(WHEEL_KINDS[e], WHEEL_NAMES[k], null, openWheel[slot], i - 1);
           openWheel[slot] = -1;
@@ -293,7 +327,7 @@ export function runPass(model: VehicleModel, path: PathSpec, opts: PassOptions =
     if (openPart[p] >= 0) close('contact', null, UNDERBODY_PARTS[p], openPart[p], null);
   }
   events.sort((a, b) => a.startStation - b.startStation || kindOrder(a.kind) - kindOrder(b.kind));
-  return { path, plannedStations: total, stations, events, firstUnload, firstLift, tip, minMargin, minClearance, lightShare, friction, approximateStations, evaluations };
+  return { path, plannedStations: total, stations, events, firstUnload, firstLift, hangUp, firstSlide, tip, minMargin, minClearance, lightShare, friction, approximateStations, evaluations };
 }
 
 function passWheel(w: WheelResult): PassWheel {
@@ -301,5 +335,30 @@ function passWheel(w: WheelResult): PassWheel {
 }
 
 function kindOrder(k: PassEventKind): number {
-  return ['light', 'lifted', 'full-bump', 'full-droop', 'friction', 'contact', 'tip'].indexOf(k);
+  return ['light', 'lifted', 'full-bump', 'full-droop', 'slide', 'contact', 'hang-up', 'tip'].indexOf(k);
 }
+
+/** How a pass ends, in order of what stops it: a tip, a hang-up, a slide (the pass goes on past it, assuming the grip is found), or it stands. */
+export type PassOutcome =
+  | { readonly kind: 'tips'; readonly distanceM: number; readonly reason: string }
+  | { readonly kind: 'hangs-up'; readonly distanceM: number; readonly part: UnderbodyPart; readonly depthM: number }
+  | { readonly kind: 'slides'; readonly distanceM: number; readonly wheel: WheelName; readonly frictionDemand: number; readonly friction: number }
+  | { readonly kind: 'stands' };
+
+/** The outcome the headline leads with. "stands" only when the pass has no tip, no hang-up and no slide. */
+export function passOutcome(r: PassResult): PassOutcome {
+  if (r.tip) return { kind: 'tips', distanceM: r.tip.distanceM, reason: r.tip.reason };
+  if (r.hangUp) return { kind: 'hangs-up', distanceM: r.hangUp.distanceM, part: r.hangUp.part, depthM: r.hangUp.depthM };
+  if (r.firstSlide) return { kind: 'slides', distanceM: r.firstSlide.distanceM, wheel: r.firstSlide.wheel, frictionDemand: r.firstSlide.frictionDemand, friction: r.friction };
+  return { kind: 'stands' };
+}
+
+/** The underbody parts in words. */
+export const UNDERBODY_PART_WORDS: Readonly<Record<UnderbodyPart, string>> = {
+  belly: 'belly',
+  front: 'front bumper',
+  rear: 'rear bumper',
+  'front-axle': 'front axle',
+  'rear-axle': 'rear axle',
+};
+

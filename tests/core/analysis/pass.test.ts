@@ -39,12 +39,16 @@ describe('obstacle pass', () => {
     }
   });
 
-  it('a ledge too tall for the belly is reported as underbody contact on the belly', () => {
+  it('a ledge too tall for the belly: the vehicle hangs up on the belly and the pass stops there', () => {
     // 0.35 m step; the test vehicle's belly is 0.28 m up (tests/helpers BODY) and the wheelbase 2.8 m.
+    // (Was reported as a touch and the pass went on; a body inside the ground is now a hard stop.)
     const model = buildModel(testVehicle(), { features: [{ type: 'step', xM: 2, heightM: 0.35, yRangeM: null, edgeRadiusM: 0.05 }] });
     const r = runPass(model, { fromM: [0, 0], toM: [4, 0], stepM: 0.05, headingRad: null });
-    const contact = r.events.find((e) => e.kind === 'contact');
-    expect(contact?.part).toBe('belly');
+    const hang = r.events.find((e) => e.kind === 'hang-up');
+    expect(hang?.part).toBe('belly');
+    expect(r.hangUp?.part).toBe('belly');
+    expect(r.stations[r.stations.length - 1].hungUp).toBe(true);
+    expect(r.stations.length).toBeLessThan(r.plannedStations);
     expect(r.minClearance!.clearanceM).toBeLessThanOrEqual(0);
   });
 
