@@ -91,7 +91,7 @@ describe('body contact: the vehicle hangs up', () => {
     const lines = out.split('\n');
     expect(lines[1]).toMatch(/^Hangs up on the belly at \d+\.\d\d m/);
     expect(out).not.toMatch(/stands all along/);
-    expect(out).toMatch(/hang-up\s+belly/);
+    expect(out).toMatch(/hangs up on the belly: the body is inside the ground/);
   });
 });
 

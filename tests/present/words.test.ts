@@ -38,7 +38,7 @@ describe('pass headline', () => {
       minClearance: null,
       lightShare: 0.25,
     } as unknown as Parameters<typeof passHeadline>[0];
-    expect(passHeadline(r, 'imperial')).toBe('RL unloads first at 10.00 ft; stands at every station; smallest force-angle margin 12.3° at 20.00 ft.');
+    expect(passHeadline(r, 'imperial')).toBe('Stands all along the path; RL unloads first at 10.00 ft; smallest force-angle margin 12.3° at 20.00 ft.');
     expect(passHeadline(r, 'metric')).toContain('RL unloads first at 3.05 m');
   });
   it('never says "stands" when the body is in the ground', () => {
@@ -48,11 +48,13 @@ describe('pass headline', () => {
       tip: null,
       minMargin: null,
       minClearance: { station: 134, distanceM: 6.7, clearanceM: -0.255, part: 'belly' },
+      hangUp: { station: 134, distanceM: 6.7, part: 'belly', depthM: 0.255 },
+      firstSlide: null,
       lightShare: 0.25,
     } as unknown as Parameters<typeof passHeadline>[0];
     const t = passHeadline(r, 'metric');
     expect(t).not.toMatch(/stands/);
-    expect(t).toContain('hangs up: the belly is 255 mm into the ground at 6.70 m');
+    expect(t).toContain('Hangs up on the belly at 6.70 m (the body 255 mm inside the ground)');
   });
 });
 
