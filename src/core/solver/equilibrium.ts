@@ -84,7 +84,7 @@ const DIRECT_MAX_RAD = (2 * Math.PI) / 180;
 /** Largest gravity turn per continuation step (rad). */
 const CONTINUATION_STEP_RAD = (5 * Math.PI) / 180;
 /** Height offsets of the set-down pose tried, in order, when every path from it stalls (m). */
-const NUDGES_M = [-0.02, 0.02, -0.05, 0.05];
+const NUDGES_M = [-0.02, 0.02];
 const _gTrue = new Float64Array(3);
 const _gripNow = new Float64Array(2);
 const _gripLast = new Float64Array(2);
@@ -160,6 +160,9 @@ function solveReference(model: VehicleModel, x: Float64Array, tol: number, maxIt
     if (attempt === 0) {
       if (beta >= DIRECT_MAX_RAD) continue;
       out = newton(model, x, tol, maxIt, true);
+    } else if (attempt === 1 && beta < DIRECT_MAX_RAD) {
+      // Turning gravity by under DIRECT_MAX_RAD without softening is the direct solve again.
+      continue;
     } else {
       out = follow(model, x, beta, steps, attempt === 2, tol, maxIt);
     }
