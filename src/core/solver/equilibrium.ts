@@ -11,18 +11,18 @@
  *
  * The Newton iteration is in newton.ts, the result builder in result.ts.
  */
-import type { Pose, SolveOptions, SolveResult, SolveStatus, Terrain, Vehicle } from '../model/types';
+import type { Pose, SolveOptions, SolveResult, Terrain, Vehicle } from '../model/types';
 import { TerrainField } from '../terrain/field';
 import { GRAVITY_MPS2, type ModelOptions, Q_VX, Q_VY, Q_Z, STATE_SIZE, VehicleModel, rigidStaticLoads } from './model';
 import { type NewtonOutcome, gripOnPlane, guessNormal, initialGuess, newton, residualOut } from './newton';
 import { buildResult } from './result';
 import { createStabilityScratch, stabilityOf } from './stability';
-
-export { DEFAULT_MAX_ITERATIONS, DEFAULT_TOLERANCE, initialGuess } from './newton';
 import { DEFAULT_MAX_ITERATIONS, DEFAULT_TOLERANCE } from './newton';
 
+export { DEFAULT_MAX_ITERATIONS, DEFAULT_TOLERANCE, initialGuess } from './newton';
+
 export const DEFAULT_FRICTION = 0.7;
-/** Continuation for hard cold starts: steps from untilted, softened tyres to the real pose. */
+/** Least number of steps of the reference start's continuation (gravity turned, tyres eased in). */
 const CONTINUATION_STEPS = 4;
 /** Tyre rate the continuation starts from (N/m): soft enough that contact changes are gentle. */
 const SOFT_TYRE_NPERM = 2e5;
