@@ -1,16 +1,19 @@
 import { it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { buildModel, solveEquilibrium } from '../src/core/solver/equilibrium';
-import { initialGuess } from '../src/core/solver/newton';
+import { parseScenario } from '../src/core/scenario/parse';
+const DEG = Math.PI / 180;
 it('try', () => {
-  for (const line of readFileSync('/tmp/solver/cases.json', 'utf8').trim().split('\n')) {
-    const c = JSON.parse(line);
-    const m = buildModel(c.vehicle, c.terrain);
-    for (const dz of [-0.05, -0.02, 0.02, 0.05, 0.1, 0.2]) {
-      m.setPose(c.pose.xM, c.pose.yM, c.pose.headingRad); m.setTilt(0, 0);
-      const x = new Float64Array(10); initialGuess(m, x); x[0] += dz;
-      const r = solveEquilibrium(m, c.pose, { tilt: c.tilt, warmStart: x, followBranch: true });
-      console.log(dz, r.status, r.reason.slice(0, 80), r.iterations, r.wheels.map((w: any) => w.lifted ? 'L' : '-').join(''));
+  const p = parseScenario(JSON.parse(readFileSync('assets/scenarios/side-hill-stock.json', 'utf8')));
+  if (!p.ok) throw new Error();
+  const s = p.scenario;
+  const m = buildModel(s.vehicle, { features: [] });
+  for (const off of [0, 30, -30, 90, 180]) {
+    let found = -1;
+    for (let a = 0; a < 60 && found < 0; a += 0.5) {
+      const r = solveEquilibrium(m, s.pose, { tilt: { angleRad: a * DEG, downhillRad: s.tilt.downhillRad + off * DEG } });
+      if (r.standing && r.wheels.some((w) => w.lifted)) found = a;
     }
+    console.log('off', off, 'found', found);
   }
 });

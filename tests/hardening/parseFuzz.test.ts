@@ -27,7 +27,7 @@ const SCENARIO_RUNS = 10_000;
 const CSV_RUNS = 4_000;
 /** Bound on one input: parse, plus one solve when accepted (the issue: no hangs; the brief: 2 s). */
 const PER_INPUT_MS = 2_000;
-const STATUSES = ['converged', 'tipped', 'no-contact', 'not-converged'];
+const STATUSES = ['converged', 'tipped', 'no-contact', 'not-converged', 'unstable'];
 
 const SCENARIO_DIR = resolve(import.meta.dirname, '../../assets/scenarios');
 const DEMO_FILES = readdirSync(SCENARIO_DIR)

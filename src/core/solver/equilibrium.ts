@@ -11,18 +11,18 @@
  *
  * The Newton iteration is in newton.ts, the result builder in result.ts.
  */
-import type { Pose, SolveOptions, SolveResult, SolveStatus, Terrain, Vehicle } from '../model/types';
+import type { Pose, SolveOptions, SolveResult, Terrain, Vehicle } from '../model/types';
 import { TerrainField } from '../terrain/field';
 import { GRAVITY_MPS2, type ModelOptions, Q_VX, Q_VY, Q_Z, STATE_SIZE, VehicleModel, rigidStaticLoads } from './model';
 import { type NewtonOutcome, gripOnPlane, guessNormal, initialGuess, newton, residualOut } from './newton';
 import { buildResult } from './result';
 import { createStabilityScratch, stabilityOf } from './stability';
-
-export { DEFAULT_MAX_ITERATIONS, DEFAULT_TOLERANCE, initialGuess } from './newton';
 import { DEFAULT_MAX_ITERATIONS, DEFAULT_TOLERANCE } from './newton';
 
+export { DEFAULT_MAX_ITERATIONS, DEFAULT_TOLERANCE, initialGuess } from './newton';
+
 export const DEFAULT_FRICTION = 0.7;
-/** Continuation for hard cold starts: steps from untilted, softened tyres to the real pose. */
+/** Least number of steps of the reference start's continuation (gravity turned, tyres eased in). */
 const CONTINUATION_STEPS = 4;
 /** Tyre rate the continuation starts from (N/m): soft enough that contact changes are gentle. */
 const SOFT_TYRE_NPERM = 2e5;
@@ -84,7 +84,7 @@ const DIRECT_MAX_RAD = (2 * Math.PI) / 180;
 /** Largest gravity turn per continuation step (rad). */
 const CONTINUATION_STEP_RAD = (5 * Math.PI) / 180;
 /** Height offsets of the set-down pose tried, in order, when every path from it stalls (m). */
-const NUDGES_M = [-0.02, 0.02, -0.05, 0.05];
+const NUDGES_M = [-0.02, 0.02];
 const _gTrue = new Float64Array(3);
 const _gripNow = new Float64Array(2);
 const _gripLast = new Float64Array(2);
@@ -160,6 +160,9 @@ function solveReference(model: VehicleModel, x: Float64Array, tol: number, maxIt
     if (attempt === 0) {
       if (beta >= DIRECT_MAX_RAD) continue;
       out = newton(model, x, tol, maxIt, true);
+    } else if (attempt === 1 && beta < DIRECT_MAX_RAD) {
+      // Turning gravity by under DIRECT_MAX_RAD without softening is the direct solve again.
+      continue;
     } else {
       out = follow(model, x, beta, steps, attempt === 2, tol, maxIt);
     }
