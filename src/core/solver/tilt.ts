@@ -100,9 +100,9 @@ export interface TiltTip extends TiltAngle {
   readonly lastMinEigen: number;
   readonly lastForceAngleRad: number;
   /**
-   * For a fold reached by the stiffness fading rather than by a sharp loss: where the stance became
-   * nearly neutral (smallest eigenvalue below NEAR_NEUTRAL_EIGEN) and stayed so up to the tip, when
-   * that began more than 1° before it. The tip then lies somewhere on that soft stretch and is not
+   * Where the stance first became nearly neutral (smallest eigenvalue below NEAR_NEUTRAL_EIGEN) for
+   * more than 1° of tilt before the tip (a fold reached by the stiffness fading, or a stance that
+   * stayed nearly neutral for a stretch before it stiffened again or reached the edge). The tip then lies somewhere on that soft stretch and is not
    * sharply defined (it can move by several degrees between neighbouring directions); treat this
    * angle as the limit. Null otherwise.
    */
@@ -356,6 +356,8 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
   let stepsOver = 0;
   /** First accepted tilt of the current nearly neutral stretch (NaN: not in one). */
   let softSince = j0.minEigen < NEAR_NEUTRAL_EIGEN ? start : NaN;
+  /** The first nearly neutral stretch longer than SOFT_STRETCH_RAD on the branch (it may have stiffened again since). */
+  let firstSoft: TiltAngle | null = null;
   while (p1.angle < maxAngle - 1e-12) {
     if (hi - p1.angle <= resolution) {
       // The branch ends within the resolution past p1, unless the failure there was numerical:
@@ -417,7 +419,7 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
       reason,
       lastMinEigen: lo.minEigen,
       lastForceAngleRad: lo.r.margins.forceAngleRad,
-      softFrom: reason === 'fold' && !Number.isNaN(softSince) && tipAngle - softSince > SOFT_STRETCH_RAD ? at(softSince) : null,
+      softFrom: firstSoft ?? (!Number.isNaN(softSince) && tipAngle - softSince > SOFT_STRETCH_RAD ? at(softSince) : null),
     };
     if (!firstLift) {
       firstLift = { ...at(tipAngle), wheel: liftedWheel(lo.r, hiRes && hiRes.status === 'converged' ? hiRes : lo.r), atTip: true };
@@ -445,6 +447,7 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
       const f = (prev.minEigen - NEAR_NEUTRAL_EIGEN) / (prev.minEigen - next.minEigen);
       softSince = liftHere ? firstLift!.angleRad : prev.angle + Math.max(0, Math.min(1, f)) * (next.angle - prev.angle);
     }
+    if (!firstSoft && !Number.isNaN(softSince) && next.angle - softSince > SOFT_STRETCH_RAD) firstSoft = at(softSince);
     p0 = prev;
     p1 = next;
   }
