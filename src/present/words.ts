@@ -18,6 +18,10 @@ export const COMMON_PRACTICE_MAX_SLOPE_TOWING_DEG = 10;
 export const QUASI_STATIC_CAUTION =
   'Caution: quasi-static estimates (a slow crawl, no bounce, no driver input). Real margins are smaller; keep to the vehicle maker\'s limits, local regulations and trained practice.';
 
+/** The app's banner, always on screen (after a bold "Caution:"). */
+export const APP_CAUTION =
+  "results are quasi-static estimates on rigid ground. Bounce, momentum, soft or crumbling ground, tyre pressure and driver input reduce the real margin. Keep well inside the limits shown, use a spotter, and follow the vehicle maker's limits, local regulations and trained practice.";
+
 /** The full caution, the same words at the top and the bottom of every report. */
 export const REPORT_CAUTIONS: readonly string[] = [
   'These results are quasi-static estimates: the vehicle is taken to stand still, or crawl so slowly that each position is a standing one, on ground that does not give way.',
