@@ -7,7 +7,7 @@
 import type { SolveResult, SolveStatus } from '../core/model/types';
 import type { PassEvent, PassResult } from '../core/analysis/pass';
 import type { BuildChange } from '../core/analysis/builds';
-import { DEG_PER_RAD, angleText, changeText, distanceText, fixed, lengthText, massText, percentText, quantityText, shortText, toDisplay, type UnitSystem } from './units';
+import { DEG_PER_RAD, RAD_PER_DEG, angleText, changeText, distanceText, fixed, lengthText, massText, percentText, quantityText, shortText, toDisplay, type UnitSystem } from './units';
 
 /** Slope printed as the maximum in operator manuals of ride-on mowers, utility vehicles and ATVs
  *  (10° when towing): common practice, no single published source (REFERENCES "Limits"). */
@@ -123,7 +123,7 @@ export function eventWords(e: PassEvent, units: UnitSystem): string {
  * force-angle margin under NEAR_TIP_RAD is close to tipping.
  */
 export const NEAR_LIFT_SHARE = 0.2;
-export const NEAR_TIP_RAD = (10 * Math.PI) / 180;
+export const NEAR_TIP_RAD = 10 * RAD_PER_DEG;
 
 export type WarningLevel = 'danger' | 'warning' | 'note';
 
