@@ -7,7 +7,7 @@
 import type { SolveResult, SolveStatus } from '../core/model/types';
 import { passOutcome, type PassEvent, type PassResult } from '../core/analysis/pass';
 import type { BuildChange } from '../core/analysis/builds';
-import { DEG_PER_RAD, angleText, changeText, distanceText, fixed, lengthText, massText, percentText, quantityText, shortText, toDisplay, type UnitSystem } from './units';
+import { DEG_PER_RAD, RAD_PER_DEG, angleText, changeText, distanceText, fixed, lengthText, massText, percentText, quantityText, shortText, toDisplay, type UnitSystem } from './units';
 
 /** Slope printed as the maximum in operator manuals of ride-on mowers, utility vehicles and ATVs
  *  (10° when towing): common practice, no single published source (REFERENCES "Limits"). */
@@ -17,6 +17,10 @@ export const COMMON_PRACTICE_MAX_SLOPE_TOWING_DEG = 10;
 /** The short caution under every result (app panels, CLI human output). */
 export const QUASI_STATIC_CAUTION =
   'Caution: quasi-static estimates (a slow crawl, no bounce, no driver input). Real margins are smaller; keep to the vehicle maker\'s limits, local regulations and trained practice.';
+
+/** The app's banner, always on screen (after a bold "Caution:"). */
+export const APP_CAUTION =
+  "results are quasi-static estimates on rigid ground. Bounce, momentum, soft or crumbling ground, tyre pressure and driver input reduce the real margin. Keep well inside the limits shown, use a spotter, and follow the vehicle maker's limits, local regulations and trained practice.";
 
 /** The full caution, the same words at the top and the bottom of every report. */
 export const REPORT_CAUTIONS: readonly string[] = [
@@ -140,7 +144,7 @@ export function eventWords(e: PassEvent, units: UnitSystem): string {
  * force-angle margin under NEAR_TIP_RAD is close to tipping.
  */
 export const NEAR_LIFT_SHARE = 0.2;
-export const NEAR_TIP_RAD = (10 * Math.PI) / 180;
+export const NEAR_TIP_RAD = 10 * RAD_PER_DEG;
 
 export type WarningLevel = 'danger' | 'warning' | 'note';
 

@@ -126,7 +126,7 @@ export function ComparePanel() {
               </table>
             </div>
             <p className="fineprint">
-              Builds as columns, [1] the reference; under each value its change from [1]. {METRICS_NOTE} Hover a build for what was changed.
+              Builds as columns, [1] the reference; under each value its change from [1] (green: more stable, orange and bold: less). {METRICS_NOTE} Hover a build for what was changed.
             </p>
             <fieldset className="group">
               <legend>In the scene</legend>

@@ -1,6 +1,6 @@
 import { useMemo } from 'react';
 import { OF_STATIC_NOTE, STANDARD_GRAVITY_M_PER_S2, angleText, forceText, percentText, scaleText, shortText } from '../../present/units';
-import { QUASI_STATIC_CAUTION, statusWords, warningsFor } from '../../present/words';
+import { statusWords, warningsFor } from '../../present/words';
 import { loadShareColour } from '../../present/palette';
 import { usePlumb, usePlumbStore } from '../../store/react';
 import { shownResult } from '../../store/store';
@@ -83,7 +83,6 @@ export function LoadsPanel() {
         Scale reading: force along gravity divided by g = {STANDARD_GRAVITY_M_PER_S2} m/s², so the four add up to the
         weight on any slope. Normal load is the force across the contact. {OF_STATIC_NOTE}
       </p>
-      <p className="fineprint">{QUASI_STATIC_CAUTION}</p>
     </section>
   );
 }

@@ -1,7 +1,7 @@
 /** `plumbline rose FILE`: tilt-table lift and tip angles for downhill directions all round the vehicle. */
 import { buildModel, stabilityRose, type RoseDirection, type RoseResult } from '../../core/index';
-import { RAD_PER_DEG } from '../../present/units';
-import { QUASI_STATIC_CAUTION } from '../../present/words';
+import { RAD_PER_DEG, directionText } from '../../present/units';
+import { QUASI_STATIC_CAUTION, downhillWords } from '../../present/words';
 import { EXIT_BAD_INPUT, EXIT_OK, type CommandSpec } from '../command';
 import { formatKeyValues, formatTable } from '../format';
 import { loadScenarioFile, toJsonText } from '../load';
@@ -36,11 +36,10 @@ export function roseJson(r: RoseResult, onTerrain: boolean): object {
   };
 }
 
-/** Words for a downhill direction (vehicle frame). */
+/** Words for a downhill direction (vehicle frame): "90° (left side down)", "100°". */
 function directionWords(rad: number): string {
-  const d = Math.round(((rad * 180) / Math.PI) * 10) / 10;
-  const names: Record<number, string> = { 0: 'nose down', 90: 'left side down', 180: 'tail down', 270: 'right side down' };
-  return names[d] ? `${d}° (${names[d]})` : `${d}°`;
+  const w = downhillWords(rad);
+  return /down$/.test(w) ? `${directionText(rad)} (${w})` : directionText(rad);
 }
 
 export const roseCommand: CommandSpec = {
