@@ -1,4 +1,10 @@
-/** Hand-written argument parsing: `--name value`, `--name=value`, `-n value`, flags, and `--`. */
+/**
+ * Argument parsing with node:util `parseArgs`: `--name value`, `--name=value`, `-n value`, flags,
+ * and `--`. One step before it: a value option takes the next argument as its value even when that
+ * begins with a dash (`--offset -1:1:0.02`, `-x -2`), which `parseArgs` would call ambiguous; the
+ * pair is handed to it as `--name=value`.
+ */
+import { parseArgs as parseNodeArgs, type ParseArgsConfig } from 'node:util';
 import { UsageError, type CommandSpec, type OptionSpec, type OptionValue, type ParsedArgs } from './command';
 
 function findOption(spec: CommandSpec, token: string): OptionSpec | undefined {
@@ -22,39 +28,57 @@ function convert(opt: OptionSpec, raw: string): OptionValue {
   return raw;
 }
 
-/** Parse a command's arguments (everything after the command name) against its spec. */
-export function parseArgs(spec: CommandSpec, argv: readonly string[]): ParsedArgs {
-  const options: Record<string, OptionValue | undefined> = Object.create(null);
-  for (const o of spec.options) options[o.name] = o.default ?? (o.kind === 'flag' ? false : undefined);
-  const positionals: string[] = [];
-  let onlyPositionals = false;
+/** `--name value` and `-n value` of value options joined as `--name=value` (see the file comment). */
+function joinValues(spec: CommandSpec, argv: readonly string[]): string[] {
+  const out: string[] = [];
   for (let i = 0; i < argv.length; i++) {
     const token = argv[i];
-    if (onlyPositionals || token === '-' || !token.startsWith('-')) {
-      positionals.push(token);
-      continue;
-    }
     if (token === '--') {
-      onlyPositionals = true;
-      continue;
+      out.push(...argv.slice(i));
+      break;
     }
-    const eq = token.startsWith('--') ? token.indexOf('=') : -1;
-    const key = eq >= 0 ? token.slice(0, eq) : token;
-    const opt = findOption(spec, key);
-    if (!opt) throw new UsageError(`unknown option ${key} for "${spec.name}"; see plumbline ${spec.name} --help`);
-    if (opt.kind === 'flag') {
-      if (eq >= 0) throw new UsageError(`--${opt.name} takes no value`);
-      options[opt.name] = true;
-      continue;
-    }
-    let raw: string;
-    if (eq >= 0) raw = token.slice(eq + 1);
-    else {
-      if (i + 1 >= argv.length) throw new UsageError(`--${opt.name} needs a value (${opt.valueName ?? 'VALUE'})`);
-      raw = argv[++i];
-    }
-    options[opt.name] = convert(opt, raw);
+    const opt = token.startsWith('-') && token !== '-' && !token.includes('=') ? findOption(spec, token) : undefined;
+    if (opt && opt.kind !== 'flag' && i + 1 < argv.length) out.push(`--${opt.name}=${argv[++i]}`);
+    else out.push(token);
   }
+  return out;
+}
+
+/** A `parseArgs` error in our words (the option it names, the command's help to see). */
+function usageErrorOf(spec: CommandSpec, e: unknown): UsageError {
+  const err = e as { code?: string; message?: string };
+  const named = /'(-[^' ]+)/.exec(err.message ?? '')?.[1] ?? '';
+  const opt = named ? findOption(spec, named.split('=')[0]) : undefined;
+  switch (err.code) {
+    case 'ERR_PARSE_ARGS_UNKNOWN_OPTION':
+      return new UsageError(`unknown option ${named} for "${spec.name}"; see plumbline ${spec.name} --help`);
+    case 'ERR_PARSE_ARGS_INVALID_OPTION_VALUE':
+      if (opt?.kind === 'flag') return new UsageError(`--${opt.name} takes no value`);
+      if (opt) return new UsageError(`--${opt.name} needs a value (${opt.valueName ?? 'VALUE'})`);
+      return new UsageError(`${err.message ?? 'bad option'}; see plumbline ${spec.name} --help`);
+    default:
+      return new UsageError(`${err.message ?? String(e)}; see plumbline ${spec.name} --help`);
+  }
+}
+
+/** Parse a command's arguments (everything after the command name) against its spec. */
+export function parseArgs(spec: CommandSpec, argv: readonly string[]): ParsedArgs {
+  const config: NonNullable<ParseArgsConfig['options']> = {};
+  for (const o of spec.options) config[o.name] = { type: o.kind === 'flag' ? 'boolean' : 'string', ...(o.short ? { short: o.short } : {}) };
+  let parsed: { values: Record<string, string | boolean | (string | boolean)[] | undefined>; positionals: string[] };
+  try {
+    parsed = parseNodeArgs({ args: joinValues(spec, argv), options: config, strict: true, allowPositionals: true });
+  } catch (e) {
+    throw usageErrorOf(spec, e);
+  }
+  const options: Record<string, OptionValue | undefined> = Object.create(null);
+  for (const o of spec.options) {
+    const given = parsed.values[o.name];
+    if (given === undefined) options[o.name] = o.default ?? (o.kind === 'flag' ? false : undefined);
+    else if (o.kind === 'flag') options[o.name] = true;
+    else options[o.name] = convert(o, String(given));
+  }
+  const positionals = parsed.positionals;
   const required = spec.args.filter((a) => !a.optional).length;
   const variadic = spec.args.some((a) => a.variadic);
   if (positionals.length < required) {

@@ -5,6 +5,7 @@
  */
 import { readFileSync, realpathSync, statSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
+import { parseArgs as parseNodeArgs } from 'node:util';
 import { EXIT_BAD_INPUT, EXIT_FAILURE, EXIT_OK, UsageError, type CliIO } from './command';
 import { commandHelp, parseArgs } from './args';
 import { COMMANDS, findCommand } from './commands/index';
@@ -37,12 +38,10 @@ export function mainHelp(): string {
   ].join('\n');
 }
 
+/** `--help` or `-h` anywhere before a `--` (node:util parseArgs tokens; other options are the command's). */
 function wantsHelp(argv: readonly string[]): boolean {
-  for (const a of argv) {
-    if (a === '--') return false;
-    if (a === '--help' || a === '-h') return true;
-  }
-  return false;
+  const { tokens } = parseNodeArgs({ args: [...argv], options: { help: { type: 'boolean', short: 'h' } }, strict: false, allowPositionals: true, tokens: true });
+  return tokens.some((t) => t.kind === 'option' && t.name === 'help' && (t.rawName === '--help' || t.rawName === '-h') && argv[t.index] === t.rawName);
 }
 
 /** Run the CLI on `argv` (the arguments after the program name); resolves to the exit code. */

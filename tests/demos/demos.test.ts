@@ -72,10 +72,15 @@ describe.each(DEMOS)('demo %s', (name) => {
     expect(pass.stations.length).toBeGreaterThan(1);
     const lines = await cli('lines', file, '--quiet', '--json', '--offset', '0', '--heading', '0', '--workers', '0');
     expect(lines.code, lines.err).toBe(0);
-    const s = parseScenarioText(readFileSync(file, 'utf8'));
-    if (s.ok && s.scenario.builds?.length) {
-      const cmp = await json('compare', file, '--quiet', '--rose-step', '30');
-      expect(cmp).toBeTruthy();
+    // compare: the vehicle as given, then the file's builds in order (none: the one column), each
+    // with its static stability factor SSF = T / (2 h) (NHTSA's rollover rating, 49 CFR 575.105
+    // background; from memory) from the mean track and CG height it reports, to its 5 digits.
+    const d = JSON.parse(readFileSync(file, 'utf8'));
+    const cmp = await json('compare', file, '--quiet', '--rose-step', '30');
+    expect(cmp.builds.map((b: { name: string }) => b.name)).toEqual(['as given', ...(d.builds ?? []).map((b: { name: string }) => b.name)]);
+    for (const b of cmp.builds) {
+      expect(b.values.cgHeightM).toBeGreaterThan(0);
+      expect(b.values.ssf).toBeCloseTo(b.values.trackMeanM / (2 * b.values.cgHeightM), 4);
     }
   });
 
@@ -86,18 +91,25 @@ describe.each(DEMOS)('demo %s', (name) => {
     const r = await cli('report', file, '--date', '2031-04-05');
     expect(r.code, r.err).toBe(0);
     const html = r.out;
+    // Every demo lifts a wheel and tips within the 89° sweep, each way (tilt --json), and tips
+    // somewhere on the rose: the report must show those numbers.
     for (const t of tilts) {
       // Same numbers as `tilt --json` (degrees to 4 decimals, as JavaScript writes them).
-      if (t.firstLift) expect(html).toContain(`${t.firstLift.wheel} at ${t.firstLift.angleDeg}°`);
-      if (t.tip) expect(html).toContain(`${t.tip.angleDeg}° over ${t.tip.edge.join('–')}`);
+      expect(t.firstLift).not.toBeNull();
+      expect(t.tip).not.toBeNull();
+      expect(html).toContain(`${t.firstLift.wheel} at ${t.firstLift.angleDeg}°`);
+      expect(html).toContain(`${t.tip.angleDeg}° over ${t.tip.edge.join('–')}`);
     }
     // `rose --json` (level tilt table, every 5°).
-    if (rose.weakest.tip) expect(html).toContain(`tips at ${rose.weakest.tip.angleDeg}° with downhill ${rose.weakest.downhillDeg}°`);
-    // `pass --json`.
-    if (pass.firstLift) expect(html).toContain(`${pass.firstLift.wheel} at ${pass.firstLift.distanceM} m`);
-    if (pass.firstUnload) expect(html).toContain(`${pass.firstUnload.wheel} at ${pass.firstUnload.distanceM} m`);
-    if (pass.minMargin) expect(html).toContain(`${pass.minMargin.forceAngleDeg}° at ${pass.minMargin.distanceM} m`);
-    if (pass.tip) expect(html).toContain(`at ${pass.tip.distanceM} m`);
+    expect(rose.weakest.tip).not.toBeNull();
+    expect(html).toContain(`tips at ${rose.weakest.tip.angleDeg}° with downhill ${rose.weakest.downhillDeg}°`);
+    // `pass --json`: each headline row as the pass went, its event or the report's "none".
+    const row = (label: string, text: string, whole = false) => `<tr><th>${label}</th><td>${esc(text)}${whole ? '</td>' : ''}`;
+    expect(html).toContain(pass.firstUnload ? row('First wheel to go light', `${pass.firstUnload.wheel} at ${pass.firstUnload.distanceM} m`) : row('First wheel to go light', 'none', true));
+    expect(html).toContain(pass.firstLift ? row('First wheel to lift', `${pass.firstLift.wheel} at ${pass.firstLift.distanceM} m`) : row('First wheel to lift', 'none', true));
+    expect(html).toContain(row('Tip', pass.tip ? `at ${pass.tip.distanceM} m` : 'none: the vehicle stands all along the path'));
+    expect(pass.minMargin).not.toBeNull();
+    expect(html).toContain(row('Smallest force-angle margin', `${pass.minMargin.forceAngleDeg}° at ${pass.minMargin.distanceM} m`));
     // The cautions, at the top and at the bottom.
     for (const c of REPORT_CAUTIONS) expect(html.split(esc(c)).length - 1).toBe(2);
     expect(html.indexOf('id="caution-top"')).toBeLessThan(html.indexOf('id="scenario"'));

@@ -198,7 +198,10 @@ describe('saved work', () => {
       const items = await page.getByTestId('error-list').locator('li').allTextContents();
       expect(items.length, name).toBeGreaterThan(0);
       for (const t of items) expect(t, name).toMatch(/^\S.*: \S/);
-      await expect(page.getByText('your current scenario is unchanged')).toBeDefined();
+      // The note is on screen (waitFor throws when it never shows; the count pins one note).
+      const note = page.getByText('your current scenario is unchanged');
+      await note.waitFor({ state: 'visible', timeout: 10_000 });
+      expect(await note.count(), name).toBe(1);
       expect(await exported(page), name).toBe(before);
       expect(await page.evaluate(() => ({} as Record<string, unknown>).polluted)).toBeUndefined();
       await page.getByRole('button', { name: 'Dismiss' }).click();

@@ -1,12 +1,10 @@
 /** Warp (one front wheel on a block) and the ramp travel test (src/core/analysis/ramp.ts). */
-import { describe, expect, it, vi } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { rampTravelScore, rampTravelTest } from '../../../src/core/analysis/ramp';
 import { buildModel, solveEquilibrium } from '../../../src/core/solver/equilibrium';
 import type { Vehicle, WheelName } from '../../../src/core/model/types';
 import { independent, testVehicle } from '../../helpers/vehicles';
 
-vi.mock('react', () => ({}));
-vi.mock('three', () => ({}));
 
 const POSE = { xM: 0, yM: 0, headingRad: 0 };
 

@@ -1,6 +1,6 @@
 /** Build options: wheel fitment, the physical change of each modification, SSF, the builds block of the scenario file. */
 import { readFileSync } from 'node:fs';
-import { describe, expect, it, vi } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import {
   applyBuild,
   backspacingFromOffsetM,
@@ -15,8 +15,6 @@ import { parseScenario, parseScenarioText } from '../../../src/core/scenario/par
 import { scenarioToFile } from '../../../src/core/scenario/write';
 import { rigidVehicle, testVehicle } from '../../helpers/vehicles';
 
-vi.mock('react', () => ({}));
-vi.mock('three', () => ({}));
 
 const IN = 0.0254;
 const MM = 0.001;

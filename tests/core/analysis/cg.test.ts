@@ -1,11 +1,9 @@
 /** CG from scale readings: level corners and the axle-lift method (src/core/analysis/cg.ts). */
-import { describe, expect, it, vi } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { cgFromLevelReadings, cgHeightFromAxleLift, withMeasuredCg } from '../../../src/core/analysis/cg';
 import { GRAVITY_MPS2 } from '../../../src/core/solver/model';
 import { testVehicle } from '../../helpers/vehicles';
 
-vi.mock('react', () => ({}));
-vi.mock('three', () => ({}));
 
 describe('axle-lift method', () => {
   it('worked example: W 20 000 N, L 2.60 m, W_f 10 400 → 11 000 N with the rear raised 0.50 m, r 0.35 m → h 0.748 m', () => {

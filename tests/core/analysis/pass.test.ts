@@ -1,6 +1,6 @@
 /** Obstacle pass (src/core/analysis/pass.ts) and the line sweep (src/core/analysis/lines.ts). */
 import { readFileSync } from 'node:fs';
-import { describe, expect, it, vi } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { runPass, stationCount, type PassEvent } from '../../../src/core/analysis/pass';
 import { makeLines, rankLines, runLineSweepJob, sweepLines } from '../../../src/core/analysis/lines';
 import { buildModel } from '../../../src/core/solver/equilibrium';
@@ -8,8 +8,6 @@ import { parseScenarioText } from '../../../src/core/scenario/parse';
 import type { Scenario } from '../../../src/core/scenario/types';
 import { testVehicle } from '../../helpers/vehicles';
 
-vi.mock('react', () => ({}));
-vi.mock('three', () => ({}));
 
 function demo(): Scenario {
   const r = parseScenarioText(readFileSync('assets/scenarios/ledge-crawler.json', 'utf8'));

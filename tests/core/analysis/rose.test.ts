@@ -1,11 +1,9 @@
 /** Stability rose of a rigid build against the closed forms (SSF and the grade formulas). */
-import { describe, expect, it, vi } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { cardinalLimits, stabilityRose } from '../../../src/core/analysis/rose';
 import { buildModel } from '../../../src/core/solver/equilibrium';
 import { rigidVehicle } from '../../helpers/vehicles';
 
-vi.mock('react', () => ({}));
-vi.mock('three', () => ({}));
 
 const DEG = Math.PI / 180;
 const POSE = { xM: 0, yM: 0, headingRad: 0 };

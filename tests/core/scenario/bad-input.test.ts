@@ -3,13 +3,11 @@
  * Plumbline's own file-format contract (docs in src/core/scenario/schema.ts); the ranges come
  * from the checks documented there.
  */
-import { describe, expect, it, vi } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { parseScenario, parseScenarioText, SCENARIO_LIMITS } from '../../../src/core/index';
 import { baseFile, DELETE, edit, imperialBaseFile } from './helpers';
 
 // Core tests must not pull in UI libraries: any accidental import then fails here.
-vi.mock('react', () => ({}));
-vi.mock('three', () => ({}));
 
 type Case = { name: string; input: () => unknown; errors: string[] };
 

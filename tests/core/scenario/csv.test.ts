@@ -2,10 +2,8 @@
  * CSV heights: the parser's accepted forms and its messages (row and column as a spreadsheet
  * counts them, 1-based). Expected values are written out by hand from the CSV text.
  */
-import { describe, expect, it, vi } from 'vitest';
+import { describe, expect, it } from 'vitest';
 
-vi.mock('react', () => ({}));
-vi.mock('three', () => ({}));
 
 import { csvPlace, gridFromCsv, MAX_CSV_ERRORS, parseCsvNumbers, profileFromCsv } from '../../../src/core/scenario/csv';
 import { parseScenario, scenarioToFile } from '../../../src/core';

@@ -1,6 +1,6 @@
 /** Scenario parsing: the demo file, defaults, warnings, and the round trip through the file form. */
 import { readFileSync } from 'node:fs';
-import { describe, expect, it, vi } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import {
   defaultBodyShape,
   parseScenario,
@@ -10,8 +10,6 @@ import {
 } from '../../../src/core/index';
 import { baseFile, edit, expectClose, FIXTURE_REL, ROUND_TRIP_REL } from './helpers';
 
-vi.mock('react', () => ({}));
-vi.mock('three', () => ({}));
 
 const DEMO = 'assets/scenarios/side-hill-stock.json';
 const IMPERIAL = 'tests/fixtures/side-hill-stock-imperial.json';

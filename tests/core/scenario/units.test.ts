@@ -4,7 +4,7 @@
  * exactly; so 1 in = 0.9144 / 36 m = 0.0254 m and 1 ft = 0.3048 m. The pound-force is one pound
  * under standard gravity, gn = 9.80665 m/s² (3rd CGPM, 1901): 1 lbf = 4.4482216152605 N.
  */
-import { describe, expect, it, vi } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import {
   KG_PER_LB,
   M_PER_FT,
@@ -19,8 +19,6 @@ import {
 } from '../../../src/core/index';
 import { baseFile, edit } from './helpers';
 
-vi.mock('react', () => ({}));
-vi.mock('three', () => ({}));
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 

@@ -13,7 +13,7 @@
  * moment, ~16 % of K_φ here), the tyre-width pivot shift and the camber of the tyres, which push in
  * opposite directions. Hence the 1.5° tolerance.
  */
-import { describe, expect, it, vi } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { buildModel, solveEquilibrium } from '../../../src/core/solver/equilibrium';
 import { GRAVITY_MPS2 } from '../../../src/core/solver/model';
 import { tiltSweep } from '../../../src/core/solver/tilt';
@@ -21,8 +21,6 @@ import type { TiltSweepResult, Vehicle } from '../../../src/core/model/types';
 import { independent, testVehicle } from '../../helpers/vehicles';
 import { EPS_COMPLIANT_TIP_RAD } from '../../helpers/eps';
 
-vi.mock('react', () => ({}));
-vi.mock('three', () => ({}));
 
 const DEG = Math.PI / 180;
 const POSE = { xM: 0, yM: 0, headingRad: 0 };

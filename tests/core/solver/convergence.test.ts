@@ -7,15 +7,13 @@
  * no equilibrium). The cases came from the property test (tests/core/solver/invariants.test.ts,
  * values rounded to 4 digits; they still fail) and from the tilt-table tests.
  */
-import { describe, expect, it, vi } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { buildModel, solveEquilibrium } from '../../../src/core/solver/equilibrium';
 import { solveLinearInPlace } from '../../../src/core/math/linalg';
 import { STATE_SIZE, type VehicleModel } from '../../../src/core/solver/model';
 import type { Pose, SolveOptions, Terrain, Vehicle } from '../../../src/core/model/types';
 import { BODY, independent, rigidVehicle, testVehicle } from '../../helpers/vehicles';
 
-vi.mock('react', () => ({}));
-vi.mock('three', () => ({}));
 
 const DEG = Math.PI / 180;
 const N = STATE_SIZE;

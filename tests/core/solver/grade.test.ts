@@ -8,14 +8,12 @@
  * Tilt table: facing uphill = tail down (downhillRad π). The vehicle is rigidVehicle with that
  * geometry (stiff springs and tyres, so the CG stays where it is given).
  */
-import { describe, expect, it, vi } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { buildModel, solveEquilibrium } from '../../../src/core/solver/equilibrium';
 import { tiltSweep } from '../../../src/core/solver/tilt';
 import { rigidVehicle } from '../../helpers/vehicles';
 import { EPS_GRADE_LOAD_FRACTION, EPS_TIP_RAD } from '../../helpers/eps';
 
-vi.mock('react', () => ({}));
-vi.mock('three', () => ({}));
 
 const DEG = Math.PI / 180;
 const POSE = { xM: 0, yM: 0, headingRad: 0 };

@@ -8,15 +8,13 @@
  * and the ground forces together hold up the weight: Σ (ground force · up) = W.
  */
 import fc from 'fast-check';
-import { afterAll, describe, expect, it, vi } from 'vitest';
+import { afterAll, describe, expect, it } from 'vitest';
 import { buildModel, solveEquilibrium } from '../../../src/core/solver/equilibrium';
 import { GRAVITY_MPS2 } from '../../../src/core/solver/model';
 import type { AxleSuspension, Pose, SolveResult, SolveStatus, Terrain, TerrainFeature, Tilt, Vehicle } from '../../../src/core/model/types';
 import { BODY, testVehicle } from '../../helpers/vehicles';
 import { EPS_LOAD_REL, EPS_RESIDUAL_REL } from '../../helpers/eps';
 
-vi.mock('react', () => ({}));
-vi.mock('three', () => ({}));
 
 const DEG = Math.PI / 180;
 const SEED = 20261201;

@@ -13,12 +13,10 @@
  * - Static (McGhee & Frank 1968): (T/2) cos φ − h sin φ.
  * All three vanish at φ = atan((T/2)/h) = 48.81° and are negative beyond.
  */
-import { describe, expect, it, vi } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { stabilityMargins } from '../../../src/core/solver/margins';
 import { EPS_MARGIN_ANGLE_RAD, EPS_MARGIN_M } from '../../helpers/eps';
 
-vi.mock('react', () => ({}));
-vi.mock('three', () => ({}));
 
 const DEG = Math.PI / 180;
 const L = 2.8;

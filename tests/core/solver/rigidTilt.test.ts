@@ -10,15 +10,13 @@
  * rigidVehicle (tests/helpers): springs and tyres 1e9 N/m, tyre width 1 mm, so the compliant
  * shift of the CG is micrometres and the pivot is the tyre centre-line.
  */
-import { describe, expect, it, vi } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { buildModel, solveEquilibrium } from '../../../src/core/solver/equilibrium';
 import { tiltSweep } from '../../../src/core/solver/tilt';
 import type { TiltSweepResult, Vehicle } from '../../../src/core/model/types';
 import { rigidVehicle } from '../../helpers/vehicles';
 import { EPS_FORCE_ANGLE_RAD, EPS_TIP_RAD, EPS_WIDE_TIP_RAD } from '../../helpers/eps';
 
-vi.mock('react', () => ({}));
-vi.mock('three', () => ({}));
 
 const DEG = Math.PI / 180;
 const POSE = { xM: 0, yM: 0, headingRad: 0 };

@@ -4,13 +4,11 @@
  * rule that feature heights add onto a base at z = 0.
  */
 import fc from 'fast-check';
-import { describe, expect, it, vi } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { FACE_RUN_M, TerrainField } from '../../../src/core/terrain/field';
 import type { TerrainFeature } from '../../../src/core/model/types';
 import { EPS_GRADIENT_REL, EPS_HEIGHT_M } from '../../helpers/eps';
 
-vi.mock('react', () => ({}));
-vi.mock('three', () => ({}));
 
 const DEG = Math.PI / 180;
 const field = (...features: TerrainFeature[]): TerrainField => new TerrainField({ features });

@@ -2,14 +2,12 @@
  * Radial-spring, terrain-enveloping tyre (Davis, Vehicle System Dynamics 4(1), 1975), evaluated
  * directly (evaluateTyre) on TerrainFields, independently of the pose solver.
  */
-import { describe, expect, it, vi } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { TerrainField } from '../../../src/core/terrain/field';
 import { calibrateTyre, evaluateTyre, makeTyreLayout, TyreContact, DEFAULT_TYRE_MODEL } from '../../../src/core/tyre/radialSpring';
 import type { Terrain } from '../../../src/core/model/types';
 import { EPS_TYRE_STIFFNESS_REL } from '../../helpers/eps';
 
-vi.mock('react', () => ({}));
-vi.mock('three', () => ({}));
 
 const R = 0.4;
 const WIDTH = 0.25;
