@@ -704,7 +704,10 @@ describe('scenario parsing: named hostile inputs', () => {
     { name: 'Infinity as a bare word in the text', text: () => STOCK_TEXT.replace(/"wheelbase":\s*[\d.]+/, '"wheelbase": Infinity'), paths: ['(file)'] },
     { name: '1e999 (overflows to Infinity in JSON.parse)', text: () => STOCK_TEXT.replace(/"wheelbase":\s*[\d.]+/, '"wheelbase": 1e999'), paths: ['vehicle.wheelbase'] },
     { name: '1e308 wheelbase', value: () => ({ ...stock(), vehicle: { ...stock().vehicle, wheelbase: 1e308 } }), paths: ['vehicle.wheelbase'] },
-    { name: '5e-324 tyre width (smallest positive double) is accepted and solves', value: () => { const s = stock(); s.vehicle.tyre.width = 5e-324; return s; }, accept: true },
+    // Below the physical lower bounds (fields.ts PHYSICAL_MIN): refused at the field, never "converged" on nonsense.
+    { name: '5e-324 tyre width (smallest positive double) is refused at the field', value: () => { const s = stock(); s.vehicle.tyre.width = 5e-324; return s; }, paths: ['vehicle.tyre.width'] },
+    { name: '5e-324 N/m tyre stiffness is refused at the field', value: () => { const s = stock(); s.vehicle.tyre.stiffness = 5e-324; return s; }, paths: ['vehicle.tyre.stiffness'] },
+    { name: 'a 1e-9 kg vehicle is refused at the field', value: () => { const s = stock(); s.vehicle.mass = 1e-9; return s; }, paths: ['vehicle.mass'] },
     { name: '-0 pose heading is accepted', value: () => ({ ...stock(), pose: { ...(stock().pose ?? {}), heading: -0 } }), accept: true },
     { name: '10,000 levels of arrays in the text', text: () => STOCK_TEXT.replace(/"notes":\s*"[^"]*"/, `"notes": ${DEEP_TEXT_ARRAY}`).replace(/^\{/, `{"deep": ${DEEP_TEXT_ARRAY},`) },
     { name: '10,000 levels of objects as a value', value: () => ({ ...stock(), deep: DEEP_OBJECT }) },
