@@ -34,7 +34,11 @@ function injectFault(): void {
     return;
   }
   if (mode === 'error') throw new Error('injected fault: the line failed');
-  if (mode === 'hang') for (;;);
+  if (mode === 'hang') {
+    // Said first, so a test knows the thread is at work before it sends a signal.
+    process.stderr.write('lines worker: injected fault: hanging\n');
+    for (;;);
+  }
 }
 
 parentPort?.on('message', (msg: InMessage) => {

@@ -36,6 +36,14 @@ function cli(args: string[], env: Record<string, string> = {}, limitMs = HARD_LI
 }
 
 const counts: Counts = newCounts();
+
+/** Polls until cond() holds (at most 90 s: a loaded machine may take long to start the threads). */
+async function waitFor(cond: () => boolean): Promise<void> {
+  for (let t0 = Date.now(); !cond(); ) {
+    if (Date.now() - t0 > 90_000) throw new Error('timed out waiting for the worker threads to start');
+    await new Promise((r) => setTimeout(r, 200));
+  }
+}
 let clean: string;
 
 beforeAll(() => {
@@ -108,7 +116,7 @@ describe('lines: threads, long jobs and signals', () => {
     counts.rejected++;
   });
 
-  it('SIGTERM during a sweep ends the process and its threads at once', async () => {
+  it('SIGTERM during a sweep ends the process and its threads at once', { timeout: 180_000 }, async () => {
     counts.tried++;
     const child = spawn(process.execPath, ['--import', 'tsx', 'src/cli/main.ts', ...SWEEP, '--workers', '2'], {
       env: { ...process.env, PLUMBLINE_TEST_WORKER_FAULT: 'hang:all', PLUMBLINE_WORKER_WATCHDOG_MS: '600000' },
@@ -116,7 +124,7 @@ describe('lines: threads, long jobs and signals', () => {
     let err = '';
     child.stderr.on('data', (d: Buffer) => (err += d.toString()));
     // Wait until the threads are at work (hung on their first line), then stop it.
-    await new Promise((r) => setTimeout(r, 6000));
+    await waitFor(() => err.includes('injected fault: hanging'));
     const t0 = Date.now();
     child.kill('SIGTERM');
     const code = await new Promise<number | null>((res) => {
@@ -136,13 +144,15 @@ describe('lines: threads, long jobs and signals', () => {
     counts.rejected++;
   });
 
-  it('killing the wrapper with SIGKILL leaves no node process running', async () => {
+  it('killing the wrapper with SIGKILL leaves no node process running', { timeout: 180_000 }, async () => {
     counts.tried++;
     // npm run -s cli is the wrapper users kill; here a shell stands in for it (its node child is the CLI).
     const wrapper = spawn('bash', ['-c', `"${process.execPath}" --import tsx src/cli/main.ts ${SWEEP.join(' ')} --workers 2 & wait`], {
       env: { ...process.env, PLUMBLINE_TEST_WORKER_FAULT: 'hang:all', PLUMBLINE_WORKER_WATCHDOG_MS: '600000' },
     });
-    await new Promise((r) => setTimeout(r, 6000));
+    let err = '';
+    wrapper.stderr.on('data', (d: Buffer) => (err += d.toString()));
+    await waitFor(() => err.includes('injected fault: hanging'));
     const kids = spawnSync('pgrep', ['-P', String(wrapper.pid)], { encoding: 'utf8' }).stdout.trim().split('\n').filter(Boolean);
     expect(kids.length).toBe(1);
     wrapper.kill('SIGKILL');
