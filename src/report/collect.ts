@@ -84,7 +84,7 @@ export interface ReportData {
  * most from its level-ground load (the vehicle on the obstacle). Null when no station stands.
  */
 export function keyStationOf(pass: PassResult): { station: PassStation; why: string } | null {
-  const standing = (st: PassStation) => st.status === 'converged' && st.forceAngleRad >= 0;
+  const standing = (st: PassStation) => !st.hungUp && st.status === 'converged' && st.forceAngleRad >= 0;
   const at = (i: number) => pass.stations[i];
   if (pass.tip) {
     for (let i = pass.tip.station - 1; i >= 0; i--) if (standing(at(i))) return { station: at(i), why: 'the last standing station before the tip' };

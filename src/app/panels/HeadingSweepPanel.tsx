@@ -4,7 +4,7 @@ import { runHeadings } from '../../worker/client';
 import { DEG_PER_RAD, distanceText } from '../../present/units';
 import { downhillWords } from '../../present/words';
 import { useWorkerJob } from './useWorkerJob';
-import { usePlumb, usePlumbStore } from '../../store/react';
+import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../../store/react';
 import { headingSweepStore, ROSE_M_PER_DEG } from './headingSweepState';
 import './fieldkit.css';
 
@@ -62,13 +62,13 @@ function HeadingChart({ r, width = 380, height = 170 }: { r: HeadingSweepResult;
 export function HeadingSweepPanel() {
   const store = usePlumbStore();
   const units = usePlumb((s) => s.units);
-  const scenario = usePlumb((s) => s.scenario);
+  const scenario = useScenarioPoseAside();
   const [stepDeg, setStepDeg] = useState(5);
   const [done, setDone] = useState<Done | null>(null);
   const { progress, message, run, cancel } = useWorkerJob();
-  const stale =
-    done !== null &&
-    (done.for.vehicle !== scenario.vehicle || done.for.terrain !== scenario.terrain || done.for.pose.xM !== scenario.pose.xM || done.for.pose.yM !== scenario.pose.yM || done.for.friction !== scenario.friction);
+  // Re-renders on a drag only when the spot leaves (or comes back to) the one swept.
+  const moved = usePlumb((s) => done !== null && (s.scenario.pose.xM !== done.for.pose.xM || s.scenario.pose.yM !== done.for.pose.yM));
+  const stale = done !== null && (moved || done.for.vehicle !== scenario.vehicle || done.for.terrain !== scenario.terrain || done.for.friction !== scenario.friction);
   const start = () => {
     const s = store.getState().scenario;
     run(

@@ -62,7 +62,6 @@ function Dial({ label, valueRad, pos, neg, posWord, negWord, testId, reading }: 
 export function LiveTilt() {
   const store = usePlumbStore();
   const vehicle = usePlumb((s) => s.scenario.vehicle);
-  const friction = usePlumb((s) => s.scenario.friction);
   const [state, setState] = useState<SensorState>('off');
   const [mount, setMount] = useState<Mount>('flat-top-forward');
   const [gravity, setGravity] = useState<Vec3 | null>(null);
@@ -71,7 +70,10 @@ export function LiveTilt() {
   const listening = useRef<((e: DeviceOrientationEvent) => void) | null>(null);
 
   // This build's limits each way (a level tilt table: the slope from level), as on the limit card.
+  // Worked out only once the sensor is started (four tilt sweeps), and again when the vehicle changes.
+  const active = state !== 'off';
   const limits = useMemo(() => {
+    if (!active) return null;
     const c = cardFor(store.getState().scenario, 'as given', vehicle, null);
     const d = Object.fromEntries(c.directions.map((x) => [x.name, x]));
     const lim = (n: string): AxisLimits => {
@@ -80,8 +82,7 @@ export function LiveTilt() {
       return { liftRad: x.lift ? x.lift.angleRad : tip, tipRad: tip, operatingRad: x.operatingRad };
     };
     return { left: lim('leftDown'), right: lim('rightDown'), nose: lim('noseDown'), tail: lim('tailDown') };
-    // friction is part of the card (the slide column) but not of these limits.
-  }, [vehicle, friction, store]);
+  }, [active, vehicle, store]);
 
   const stop = () => {
     if (listening.current) window.removeEventListener('deviceorientation', listening.current);
@@ -123,8 +124,8 @@ export function LiveTilt() {
 
   const axes = zero ? vehicleAxes(zero, mount) : null;
   const tilt = gravity && axes ? vehicleTilt(gravity, axes) : null;
-  const roll = tilt ? readAxis(tilt.rollRad, 'roll', limits.right, limits.left) : null;
-  const pitch = tilt ? readAxis(tilt.pitchRad, 'pitch', limits.nose, limits.tail) : null;
+  const roll = tilt && limits ? readAxis(tilt.rollRad, 'roll', limits.right, limits.left) : null;
+  const pitch = tilt && limits ? readAxis(tilt.pitchRad, 'pitch', limits.nose, limits.tail) : null;
   const worst = roll && pitch ? (roll.toLiftRad <= pitch.toLiftRad ? roll : pitch) : null;
   const past = (roll?.pastOperating ?? false) || (pitch?.pastOperating ?? false);
 
@@ -165,15 +166,23 @@ export function LiveTilt() {
           {state === 'live' && zero && !axes && 'The front of the vehicle cannot be told from this mount and zero: choose the other mount, or zero again.'}
           {state === 'live' && axes && 'Live.'}
         </p>
+        {limits ? (
         <div className="dials">
           <Dial label="Roll (side to side), from the zero" valueRad={tilt ? tilt.rollRad : null} pos={limits.right} neg={limits.left} posWord="right down" negWord="left down" testId="tilt-live-roll" reading={roll} />
           <Dial label="Pitch (nose and tail), from the zero" valueRad={tilt ? tilt.pitchRad : null} pos={limits.nose} neg={limits.tail} posWord="nose down" negWord="tail down" testId="tilt-live-pitch" reading={pitch} />
         </div>
+        ) : (
+          <div className="dials">
+            <div className="reading" data-testid="tilt-live-roll">–</div>
+            <div className="reading" data-testid="tilt-live-pitch">–</div>
+          </div>
+        )}
         <p className={past ? 'warning' : undefined} data-testid="tilt-live-margin" data-past-operating={past ? 'true' : 'false'} data-to-lift-deg={worst ? worst.toLiftRad * DEG : ''}>
           {worst
             ? `${past ? 'PAST THE OPERATING LINE. ' : ''}Margin left: ${(worst.toLiftRad * DEG).toFixed(1)}° to the first wheel lift and ${(worst.toTipRad * DEG).toFixed(1)}° to the tip (${worst.toward === 'level' ? 'level' : worst.toward}).`
             : 'Margin: start the sensor and zero it.'}
         </p>
+        {limits ? (
         <p className="fineprint">
           Limits each way (slope from level, this build): left {(limits.left.liftRad * DEG).toFixed(1)}° lift / {(limits.left.tipRad * DEG).toFixed(1)}° tip; right{' '}
           {(limits.right.liftRad * DEG).toFixed(1)}° / {(limits.right.tipRad * DEG).toFixed(1)}°; nose {(limits.nose.liftRad * DEG).toFixed(1)}° /{' '}
@@ -181,6 +190,7 @@ export function LiveTilt() {
           line (common practice, at most 15°). Each axis is read against its own limit; a slope at an angle to both is worse than either alone. Quasi-static estimates
           on firm ground: bumps, soft edges and motion take the real margin down; keep to the vehicle maker's limits.
         </p>
+        ) : null}
       </details>
     </section>
   );
