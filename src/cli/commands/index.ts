@@ -12,9 +12,10 @@ import { roseCommand } from './rose';
 import { linesCommand } from './lines';
 import { compareCommand } from './compare';
 import { cgCommand } from './cg';
+import { groundCommand } from './ground';
 
 /** Every command, in the order `plumbline --help` lists them. */
-export const COMMANDS: readonly CommandSpec[] = [checkCommand, poseCommand, tiltCommand, reportCommand, passCommand, roseCommand, linesCommand, compareCommand, cgCommand];
+export const COMMANDS: readonly CommandSpec[] = [checkCommand, poseCommand, tiltCommand, reportCommand, passCommand, roseCommand, linesCommand, compareCommand, cgCommand, groundCommand];
 
 export function findCommand(name: string): CommandSpec | undefined {
   return COMMANDS.find((c) => c.name === name);

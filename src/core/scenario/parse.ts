@@ -8,6 +8,7 @@
  * inherited is ever read and nothing is polluted; (2) the zod schema for the file's unit system;
  * (3) checks across fields; (4) conversion to SI with the defaults applied in one place.
  */
+import { base64Length, compactHeightCount, decodeMask } from '../ground/base64';
 import { migrateScenario } from './migrate';
 import type { AxleSuspension, BodyShape, PathSpec, PayloadItem, TerrainFeature, TyreSpec, Vehicle } from '../model/types';
 import type { ParseResult, Scenario, ScenarioError, UnitSystem } from './types';
@@ -267,6 +268,13 @@ function crossChecks(data: unknown, units: UnitSystem, errors: ScenarioError[]):
       if (Array.isArray(heights) && heights.length !== n && heights.length <= SCENARIO_LIMITS.gridNodes) {
         push(`${p}.heights`, `must have cols × rows = ${n} values, got ${heights.length}`);
       }
+      // The compact (base64) form of imported ground, and its filled mask.
+      const count = typeof heights === 'string' ? compactHeightCount(heights) : -1;
+      if (count >= 0 && count !== n) push(`${p}.heights`, `must hold cols × rows = ${n} heights, holds ${count}`);
+      const filled = own(f, 'filled');
+      if (typeof filled === 'string' && base64Length(filled) >= 0 && base64Length(filled) !== Math.ceil(n / 8)) {
+        push(`${p}.filled`, `must hold one bit per node (${Math.ceil(n / 8)} bytes), holds ${base64Length(filled)}`);
+      }
     }
   }
 
@@ -419,6 +427,10 @@ function toScenario(d: ScenarioFileData, warnings: string[]): Scenario {
           cols: f.cols,
           rows: f.rows,
           heightsM: h,
+          ...(f.filled !== undefined ? { filledMask: decodeMask(f.filled, f.cols * f.rows) } : {}),
+          ...(f.source !== undefined
+            ? { source: { file: f.source.file, format: f.source.format, crs: f.source.crs, originSource: f.source.origin, sourceUnitM: f.source.unit } }
+            : {}),
         };
       }
     }

@@ -7,6 +7,7 @@ import type { Scenario, UnitSystem } from './types';
 import { DOWNHILL_NAMES, type DownhillName } from './schema';
 import { RAD_PER_DEG, fromSI } from './units';
 import { buildsToFile } from './builds';
+import { encodeHeights, encodeMask } from '../ground/base64';
 
 /** JSON-ready scenario file data. */
 export type ScenarioFileObject = Record<string, unknown>;
@@ -54,9 +55,19 @@ export function scenarioToFile(s: Scenario, units: UnitSystem = s.units): Scenar
           ...(f.acrossM ? { across: range(f.acrossM) } : {}),
         };
       case 'grid': {
+        const base = { type: 'grid', origin: [m(f.originM[0]), m(f.originM[1])], spacing: m(f.spacingM), cols: f.cols, rows: f.rows };
+        if (f.source) {
+          // Imported ground: heights as base64 float32 (compact, fast to read back), the filled mask one bit per node.
+          return {
+            ...base,
+            heights: encodeHeights(f.heightsM, m(1)),
+            ...(f.filledMask ? { filled: encodeMask(f.filledMask) } : {}),
+            source: { file: f.source.file, format: f.source.format, crs: f.source.crs, origin: [...f.source.originSource], unit: f.source.sourceUnitM },
+          };
+        }
         const heights: number[] = new Array(f.heightsM.length);
         for (let i = 0; i < heights.length; i++) heights[i] = m(f.heightsM[i]);
-        return { type: 'grid', origin: [m(f.originM[0]), m(f.originM[1])], spacing: m(f.spacingM), cols: f.cols, rows: f.rows, heights };
+        return { ...base, heights };
       }
     }
   };
