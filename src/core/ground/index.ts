@@ -12,3 +12,4 @@ export { chooseCell, contactPatchLengthM, pointSpacingM } from './cellSize';
 export { buildGround, MAX_GRID_NODES, type RawGround, type GroundSettings, type GroundSummary, type GroundResult } from './pipeline';
 export { groundFeature, scenarioOnGround, onFilledGround } from './feature';
 export { encodeHeights, decodeHeights, encodeMask, decodeMask, HEIGHTS_PREFIX } from './base64';
+export { hornSlopeAspect } from './slope';
