@@ -48,7 +48,10 @@ export function progressiveMorphologicalFilter(xyz: Float32Array, count: number,
     const w = 2 * 2 ** (k - 1) + 1;
     if ((w - 1) * c > maxWindowM) break;
     const opened = open(surface, cols, rows, (w - 1) >> 1);
-    let dh = w <= 3 ? dh0 : slope * (w - prevW) * c + dh0;
+    // Zhang et al. hold the first window's threshold at dh0, which assumes cells of about 1 m; with
+    // coarser cells a slope rises more than dh0 across one window, so the slope term applies from
+    // the first window on (w_0 = 1).
+    let dh = slope * (w - prevW) * c + dh0;
     if (dh > dhMax) dh = dhMax;
     for (let i = 0; i < count; i++) if (keep[i] && xyz[3 * i + 2] - opened[cellOf[i]] > dh) keep[i] = 0;
     surface = opened;

@@ -10,7 +10,7 @@ import { gridOver, gridPoints, type GridSpec } from './gridding';
 import { rasteriseTop } from './rasterise';
 import { fillHoles } from './fill';
 import { levelPoints, type LevelResult } from './level';
-import { chooseCell, contactPatchLengthM, pointSpacingM } from './cellSize';
+import { chooseCell, contactPatchLengthM, coveredSpacingM } from './cellSize';
 import { sizeWarning } from './units';
 import { GroundError, type HeightGrid, type LocalOrigin, type SourceInfo, type StepReport } from './types';
 
@@ -191,7 +191,8 @@ export function buildGround(raw: RawGround, settings: GroundSettings = {}): Grou
   let groundRemoved = 0;
   const lb = boundsOf(xyz, count);
   const areaM2 = Math.max((lb[3] - lb[0]) * (lb[4] - lb[1]), 1e-12);
-  const spacing = pointSpacingM(areaM2, isMesh ? count : count);
+  void areaM2;
+  const spacing = coveredSpacingM(xyz, count);
   const tyre = settings.tyre ?? DEFAULT_TYRE;
   const patch = contactPatchLengthM(tyre.radiusM, tyre.deflectionM);
   const choice = settings.cellM !== undefined ? { cellM: settings.cellM, why: 'as given' } : chooseCell(patch, spacing);
