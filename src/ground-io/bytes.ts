@@ -18,10 +18,17 @@ export function headText(bytes: Uint8Array, max: number): string {
 
 export function checkCount(file: string, what: string, n: number): void {
   if (!Number.isInteger(n) || n < 0) fail(file, `the header's ${what} count is not a whole number: ${n}`);
-  if (n > MAX_ELEMENTS) fail(file, `the header claims ${n.toLocaleString('en-US')} ${what}s, more than the ${MAX_ELEMENTS.toLocaleString('en-US')} this import takes`);
+  const plural = what.endsWith('x') ? `${what.slice(0, -2)}ices` : `${what}s`;
+  if (n > MAX_ELEMENTS) fail(file, `the header claims ${n.toLocaleString('en-US')} ${plural}, more than the ${MAX_ELEMENTS.toLocaleString('en-US')} this import takes`);
 }
 
 /** UTF-8 text of the whole file. */
 export function textOf(bytes: Uint8Array): string {
   return new TextDecoder('utf-8').decode(bytes);
+}
+
+/** The message of whatever a library threw, or a fallback when it gave none. */
+export function reason(e: unknown, fallback: string): string {
+  const m = e instanceof Error ? e.message : typeof e === 'string' ? e : '';
+  return m && m !== 'undefined' ? m : fallback;
 }

@@ -8,7 +8,7 @@
  */
 import type { GeoTIFF } from 'geotiff';
 import type { RawGround } from '../core/ground/pipeline';
-import { fail } from './bytes';
+import { fail, reason } from './bytes';
 
 const EPSG_UNITS: Record<number, number> = { 9001: 1, 9002: 0.3048, 9003: 1200 / 3937 };
 
@@ -22,7 +22,7 @@ export async function readGeoTiff(tiff: GeoTIFF, file: string, opts: GeoTiffOpti
   try {
     image = await tiff.getImage(0);
   } catch (e) {
-    fail(file, `the TIFF has no readable image (${(e as Error).message})`);
+    fail(file, `the TIFF has no readable image (${reason(e, 'no image directory')})`);
   }
   const width = image.getWidth();
   const height = image.getHeight();
@@ -78,7 +78,7 @@ export async function readGeoTiff(tiff: GeoTIFF, file: string, opts: GeoTiffOpti
   try {
     data = (await image.readRasters({ window: [wx0, wy0, wx1, wy1], samples: [0], interleave: true })) as unknown as ArrayLike<number>;
   } catch (e) {
-    fail(file, `the pixels cannot be decoded (${(e as Error).message}): truncated or an unsupported compression`);
+    fail(file, `the pixels cannot be decoded (${reason(e, 'the data ends early')}): truncated or an unsupported compression`);
   }
   const w = wx1 - wx0;
   const hgt = wy1 - wy0;

@@ -4,7 +4,7 @@
  */
 import { fromArrayBuffer } from 'geotiff';
 import type { RawGround } from '../core/ground/pipeline';
-import { fail } from './bytes';
+import { fail, reason } from './bytes';
 import { readAsc } from './asc';
 import { readGeoTiff } from './geotiff';
 import { readGltf } from './gltf';
@@ -54,7 +54,7 @@ export async function readGroundBytes(bytes: Uint8Array, file: string, opts: Rea
         const ab = bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength) as ArrayBuffer;
         tiff = await fromArrayBuffer(ab);
       } catch (e) {
-        fail(file, `the TIFF cannot be opened (${(e as Error).message}): truncated or damaged`);
+        fail(file, `the TIFF cannot be opened (${reason(e, 'no image directory')}): truncated or damaged`);
       }
       return readGeoTiff(tiff, file, { crop: opts.crop });
     }

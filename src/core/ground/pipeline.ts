@@ -420,7 +420,7 @@ function finish(
     steps.push({ step: 'hole filling', method: 'Laplace (harmonic) interpolation, Press et al. Numerical Recipes §3.8; SOR (Young 1954)', detail: { filled, share: filled / n } });
   } else if (empty > 0) {
     throw new GroundError(
-      `${info.file}: ${((100 * empty) / n).toFixed(1)} % of the grid (${empty} nodes) has no height; add --fill to fill the holes (they are marked as filled), or use a larger --cell`,
+      `${info.file}: ${((100 * empty) / n).toFixed(1)} % of the grid (${empty} of ${n} nodes) has no height; add --fill to fill the holes (they are marked as filled), or use a larger --cell`,
     );
   }
   return {
