@@ -4,25 +4,36 @@
  * stays free of platform objects and a 5 MB string decodes without a 5 MB intermediate string.
  */
 const ALPHABET = 'ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz0123456789+/';
-const LOOKUP = new Int16Array(128).fill(-1);
-for (let i = 0; i < 64; i++) LOOKUP[ALPHABET.charCodeAt(i)] = i;
+const LOOKUP = new Int32Array(256).fill(-1);
+const ENC = new Uint8Array(64);
+for (let i = 0; i < 64; i++) {
+  LOOKUP[ALPHABET.charCodeAt(i)] = i;
+  ENC[i] = ALPHABET.charCodeAt(i);
+}
 
 export function encodeBase64(bytes: Uint8Array): string {
-  const parts: string[] = [];
-  const chunk = 3 * 16384;
-  for (let start = 0; start < bytes.length; start += chunk) {
-    const end = Math.min(bytes.length, start + chunk);
-    const codes = new Array<number>();
-    for (let i = start; i < end; i += 3) {
-      const a = bytes[i];
-      const b = i + 1 < end ? bytes[i + 1] : 0;
-      const c = i + 2 < end ? bytes[i + 2] : 0;
-      codes.push(ALPHABET.charCodeAt(a >> 2), ALPHABET.charCodeAt(((a & 3) << 4) | (b >> 4)));
-      codes.push(i + 1 < end ? ALPHABET.charCodeAt(((b & 15) << 2) | (c >> 6)) : 61, i + 2 < end ? ALPHABET.charCodeAt(c & 63) : 61);
-    }
-    parts.push(String.fromCharCode(...codes));
+  const n = bytes.length;
+  const out = new Uint8Array(Math.ceil(n / 3) * 4);
+  const A = ENC;
+  let o = 0;
+  let i = 0;
+  for (; i + 2 < n; i += 3) {
+    const v = (bytes[i] << 16) | (bytes[i + 1] << 8) | bytes[i + 2];
+    out[o++] = A[v >> 18];
+    out[o++] = A[(v >> 12) & 63];
+    out[o++] = A[(v >> 6) & 63];
+    out[o++] = A[v & 63];
   }
-  return parts.join('');
+  if (i < n) {
+    const a = bytes[i];
+    const b = i + 1 < n ? bytes[i + 1] : 0;
+    out[o++] = A[a >> 2];
+    out[o++] = A[((a & 3) << 4) | (b >> 4)];
+    out[o++] = i + 1 < n ? A[(b & 15) << 2] : 61;
+    out[o++] = 61;
+  }
+  // Every code is ASCII, so Latin-1 decoding maps each byte to one character.
+  return new TextDecoder('latin1').decode(out);
 }
 
 /** Decoded length of a base64 text, or -1 when it is not base64. */
@@ -38,22 +49,28 @@ export function base64Length(s: string): number {
 export function decodeBase64(s: string): Uint8Array | null {
   const n = base64Length(s);
   if (n < 0) return null;
+  // UTF-8 of an ASCII text is one byte per character; anything else makes it longer (and wrong).
+  const codes = new TextEncoder().encode(s);
+  if (codes.length !== s.length) return null;
   const out = new Uint8Array(n);
+  const L = LOOKUP;
   let o = 0;
-  for (let i = 0; i < s.length; i += 4) {
-    const a = LOOKUP[s.charCodeAt(i) & 127];
-    const b = LOOKUP[s.charCodeAt(i + 1) & 127];
-    const c3 = s.charCodeAt(i + 2);
-    const d4 = s.charCodeAt(i + 3);
-    const c = c3 === 61 ? 0 : LOOKUP[c3 & 127];
-    const d = d4 === 61 ? 0 : LOOKUP[d4 & 127];
-    if (a < 0 || b < 0 || c < 0 || d < 0 || s.charCodeAt(i) > 127 || s.charCodeAt(i + 1) > 127 || c3 > 127 || d4 > 127) return null;
+  const len = codes.length;
+  let bad = 0;
+  for (let i = 0; i < len; i += 4) {
+    const a = L[codes[i]];
+    const b = L[codes[i + 1]];
+    const c3 = codes[i + 2];
+    const d4 = codes[i + 3];
+    const c = c3 === 61 && i + 4 >= len ? 0 : L[c3];
+    const d = d4 === 61 && i + 4 >= len ? 0 : L[d4];
+    bad |= a | b | c | d;
     const v = (a << 18) | (b << 12) | (c << 6) | d;
     if (o < n) out[o++] = v >> 16;
     if (o < n) out[o++] = (v >> 8) & 255;
     if (o < n) out[o++] = v & 255;
   }
-  return out;
+  return bad < 0 ? null : out;
 }
 
 /** Prefix of the compact height form: `"base64-f32le:" + base64 of little-endian float32 heights`. */
