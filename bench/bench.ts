@@ -3,6 +3,7 @@
  * in-process and returns the figures; bench/run.ts prints them and writes the JSON file; the
  * quick mode (one run each, small batches) is what tests/bench/bench.test.ts runs in CI.
  */
+import { groundFigures, GROUND_FIGURE_NAMES, GROUND_TARGETS } from './ground';
 import { makeLines } from '../src/core/analysis/lines';
 import { type PassResult, runPass } from '../src/core/analysis/pass';
 import { type RoseResult, stabilityRose } from '../src/core/analysis/rose';
@@ -67,6 +68,7 @@ export const TARGETS: readonly Target[] = [
   { name: 'settle.ratio', op: '>=', bound: 100, unit: '×' },
   { name: 'settle.loadDiff', op: '<=', bound: 0.02, unit: 'of weight' },
   { name: 'grid.4096vs64', op: '<=', bound: 1.5, unit: '×' },
+  ...GROUND_TARGETS,
 ];
 
 /** Figure names every run produces (lines.* may be "not available" until the analysis module lands). */
@@ -84,6 +86,7 @@ export const FIGURE_NAMES = [
   'settle.ratio',
   'settle.loadDiff',
   'grid.4096vs64',
+  ...GROUND_FIGURE_NAMES,
 ] as const;
 
 const US_PER_MS = 1000;
@@ -430,6 +433,8 @@ export async function runBench(opts: BenchOptions = {}): Promise<BenchReport> {
     measureTyre('growth.slices.6vs3', { ...DEFAULT_TYRE_MODEL, slices: 6 }, '6 slices vs 3 (springs 2.5°)');
     measureTyre('growth.springs.1.25vs2.5deg', { ...DEFAULT_TYRE_MODEL, springSpacingRad: 1.25 * DEG }, 'springs every 1.25° vs 2.5° (3 slices)');
   }
+
+  for (const f of await groundFigures(quick, log)) push(f);
 
   return { machine: atStart, quick, figures, settle };
 }

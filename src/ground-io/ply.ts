@@ -171,6 +171,32 @@ export function readPly(bytes: Uint8Array, file: string): RawGround {
           }
         }
         off += stride * el.count;
+      } else if (el === fEl && el.props.length === 1 && listIdx === 0 && el.props[0].countType === 'uint8' && (el.props[0].type === 'int32' || el.props[0].type === 'uint32')) {
+        // The common face layout (one uchar-counted int list): read inline, no per-value switch.
+        for (let i = 0; i < el.count; i++) {
+          if (off + 1 > end) fail(file, `truncated: the data ends inside face ${i} of ${el.count}`);
+          const n = bytes[off];
+          off++;
+          if (off + 4 * n > end) fail(file, `truncated: the data ends inside face ${i} of ${el.count}`);
+          if (n >= 3) {
+            const a = dv.getInt32(off, le);
+            let b = dv.getInt32(off + 4, le);
+            if (!(a >= 0 && a < nv && b >= 0 && b < nv)) checkIndex(a < 0 || a >= nv ? a : b, i);
+            for (let j = 2; j < n; j++) {
+              const c = dv.getInt32(off + 4 * j, le);
+              if (!(c >= 0 && c < nv)) checkIndex(c, i);
+              if (nt * 3 + 3 > idx.length) pushTri(a, b, c);
+              else {
+                idx[3 * nt] = a;
+                idx[3 * nt + 1] = b;
+                idx[3 * nt + 2] = c;
+                nt++;
+              }
+              b = c;
+            }
+          }
+          off += 4 * n;
+        }
       } else {
         for (let i = 0; i < el.count; i++) {
           for (let q = 0; q < el.props.length; q++) {
