@@ -9,7 +9,7 @@ export { progressiveMorphologicalFilter } from './groundFilter';
 export { fillHoles } from './fill';
 export { fitGroundPlane, levelPoints } from './level';
 export { chooseCell, contactPatchLengthM, pointSpacingM } from './cellSize';
-export { buildGround, MAX_GRID_NODES, type RawGround, type GroundSettings, type GroundSummary, type GroundResult } from './pipeline';
+export { buildGround, MAX_GRID_NODES, GROUND_STEP_COUNT, type RawGround, type GroundSettings, type GroundSummary, type GroundResult } from './pipeline';
 export { groundFeature, scenarioOnGround, onFilledGround } from './feature';
 export { encodeHeights, decodeHeights, encodeMask, decodeMask, HEIGHTS_PREFIX } from './base64';
 export { hornSlopeAspect } from './slope';

@@ -58,7 +58,12 @@ export interface GroundSettings {
   readonly percentile?: number;
   /** Tyre for the cell choice. @default radius 0.4 m, deflection 0.03 m (an invented light-truck tyre) */
   readonly tyre?: { readonly radiusM: number; readonly deflectionM: number };
+  /** Called as each step finishes (the app's progress bar). */
+  readonly onStep?: (step: string, done: number) => void;
 }
+
+/** Steps reported, at most (for a progress bar's total). */
+export const GROUND_STEP_COUNT = 9;
 
 export interface GroundSummary {
   readonly file: string;
@@ -100,6 +105,12 @@ export function buildGround(raw: RawGround, settings: GroundSettings = {}): Grou
   const up = settings.up ?? info.up ?? 'z';
   const crop = settings.crop ?? null;
   const steps: StepReport[] = [];
+  const push0 = steps.push.bind(steps);
+  steps.push = (...items: StepReport[]) => {
+    const n = push0(...items);
+    for (const it of items) settings.onStep?.(it.step, n);
+    return n;
+  };
   const warnings: string[] = [];
   if (!(unitM > 0) || !Number.isFinite(unitM)) throw new GroundError(`${info.file}: the length unit must be a positive number of metres, got ${unitM}`);
   if (settings.cellM !== undefined && !(settings.cellM > 0 && settings.cellM < 1e4)) {
