@@ -248,7 +248,7 @@ export function GroundImport() {
           <canvas ref={canvas} style={{ width: '100%', maxWidth: 320, imageRendering: 'pixelated', border: '1px solid #8a939c' }} />
           <p className="fineprint">
             {s.file} ({s.format}
-            {s.crs ? `, ${s.crs}` : ''}): {s.pointsRead > 0 ? `${s.pointsRead} points` : s.cellsRead > 0 ? `${s.cellsRead} cells` : ''}
+            {s.crs ? `, ${s.crs}` : ''}): {s.trianglesRead > 0 ? `${s.pointsRead} vertices` : s.pointsRead > 0 ? `${s.pointsRead} points` : s.cellsRead > 0 ? `${s.cellsRead} cells` : ''}
             {s.trianglesRead > 0 ? `, ${s.trianglesRead} triangles` : ''} read; {s.outliersRemoved} outliers removed
             {s.groundFilterRemoved > 0 ? `, ${s.groundFilterRemoved} off-ground points removed` : ''}; grid {s.cols} × {s.rows} at {len(s.cellM)} ({s.cellWhy}); {(100 * s.filledShare).toFixed(1)} % filled (orange)
             {s.levellingDeg !== null ? `; levelled by ${s.levellingDeg.toFixed(1)}° (fitted ground plane to level)` : ''}.

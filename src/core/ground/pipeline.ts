@@ -99,18 +99,22 @@ export interface GroundResult {
 
 const DEFAULT_TYRE = { radiusM: 0.4, deflectionM: 0.03 };
 
+/** The steps done so far; tells `onStep` as each is added. */
+class StepList {
+  readonly list: StepReport[] = [];
+  constructor(private readonly onStep?: (step: string, done: number) => void) {}
+  push(r: StepReport): void {
+    this.list.push(r);
+    this.onStep?.(r.step, this.list.length);
+  }
+}
+
 export function buildGround(raw: RawGround, settings: GroundSettings = {}): GroundResult {
   const info = raw.info;
   const unitM = settings.unitM ?? info.unitM ?? 1;
   const up = settings.up ?? info.up ?? 'z';
   const crop = settings.crop ?? null;
-  const steps: StepReport[] = [];
-  const push0 = steps.push.bind(steps);
-  steps.push = (...items: StepReport[]) => {
-    const n = push0(...items);
-    for (const it of items) settings.onStep?.(it.step, n);
-    return n;
-  };
+  const steps = new StepList(settings.onStep);
   const warnings: string[] = [];
   if (!(unitM > 0) || !Number.isFinite(unitM)) throw new GroundError(`${info.file}: the length unit must be a positive number of metres, got ${unitM}`);
   if (settings.cellM !== undefined && !(settings.cellM > 0 && settings.cellM < 1e4)) {
@@ -179,7 +183,9 @@ export function buildGround(raw: RawGround, settings: GroundSettings = {}): Grou
     const r = statisticalOutliers(xyz, count, { k: isMesh ? 8 : 16 });
     outliersRemoved = r.removed;
     if (isMesh) {
-      ({ indices, triCount } = keepTriangles(indices as Uint32Array, triCount, r.keep, true));
+      // A mesh loses only triangles whose three corners are all outliers (a floating fragment); a
+      // steep face's stretched triangles have some inlier corners and stay.
+      ({ indices, triCount } = keepTriangles(indices as Uint32Array, triCount, r.keep, false));
     } else count = compactPoints(xyz, count, r.keep, classes);
     steps.push({
       step: 'outlier removal',
@@ -305,7 +311,7 @@ function rasterGround(
   unitM: number,
   up: 'z' | 'y',
   crop: readonly [number, number, number, number] | null,
-  steps: StepReport[],
+  steps: StepList,
   warnings: string[],
 ): GroundResult {
   const info = raw.info;
@@ -419,7 +425,7 @@ function finish(
   unitM: number,
   up: 'z' | 'y',
   origin: LocalOrigin,
-  steps: StepReport[],
+  steps: StepList,
   warnings: string[],
   counts: Pick<GroundSummary, 'pointsRead' | 'trianglesRead' | 'cellsRead' | 'croppedOut' | 'outliersRemoved' | 'groundFilterRemoved' | 'cellWhy' | 'levellingDeg'>,
 ): GroundResult {
@@ -453,7 +459,7 @@ function finish(
       emptyShare: empty / n,
       originSource: origin,
       warnings,
-      steps,
+      steps: steps.list,
     },
   };
 }
