@@ -1,9 +1,16 @@
 /** `plumbline pose FILE`: solve the scenario's pose (with its tilt) and print the tyre loads, travel and margins. */
-import { solveEquilibrium, type SolveResult } from '../../core/index';
+import { solveEquilibrium, type Scenario, type SolveResult } from '../../core/index';
+import { onFilledGround } from '../../core/ground/index';
 import { EXIT_BAD_INPUT, EXIT_FAILURE, EXIT_OK, type CommandSpec } from '../command';
 import { formatKeyValues, formatTable } from '../format';
 import { loadScenarioFile, toJsonText } from '../load';
 import { displayUnits, modelOf, radToDegRounded } from '../solveScenario';
+
+/** Whether a loaded tyre's contact lies on imported ground that was filled in (not measured). */
+export function onFilled(s: Scenario, r: SolveResult): boolean {
+  const pts = r.wheels.filter((w) => !w.lifted).map((w) => [w.contactPointWorld[0], w.contactPointWorld[1]] as const);
+  return s.terrain.features.some((f) => onFilledGround(f, pts));
+}
 
 /** The documented JSON form of a pose result: SI, angles in degrees, units in the key names. */
 export function poseJson(r: SolveResult): object {
@@ -69,7 +76,8 @@ export const poseCommand: CommandSpec = {
     const s = loaded.scenario;
     const model = modelOf(s);
     const r = solveEquilibrium(model, s.pose, { tilt: s.tilt, friction: s.friction });
-    if (args.options.json) io.out(toJsonText(poseJson(r)));
+    const filled = onFilled(s, r);
+    if (args.options.json) io.out(toJsonText({ ...poseJson(r), onFilledGround: filled }));
     else {
       const u = displayUnits(s.units);
       io.out(`${s.name}: ${s.vehicle.name}`);
@@ -107,6 +115,7 @@ export const poseCommand: CommandSpec = {
         ]),
       );
       io.out('');
+      if (filled) io.out('Caution: a tyre stands on ground that was filled in by the import (no data there): its load is a guess.');
       io.out('Caution: a quasi-static estimate on rigid ground. Real margins are smaller; follow the maker\'s limits, local rules and trained practice.');
     }
     if (r.status !== 'converged') {

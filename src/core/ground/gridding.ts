@@ -25,8 +25,9 @@ export interface GriddingSettings {
 
 /** Grid nodes covering the bounds [x0, y0, x1, y1] at the cell size (origin at the low corner). */
 export function gridOver(bounds: readonly [number, number, number, number], cellM: number): GridSpec {
-  const cols = Math.max(2, Math.floor((bounds[2] - bounds[0]) / cellM + 1e-9) + 1);
-  const rows = Math.max(2, Math.floor((bounds[3] - bounds[1]) / cellM + 1e-9) + 1);
+  // A thousandth of a cell of slack: float32 coordinates put an extent of exactly n cells a hair short of it.
+  const cols = Math.max(2, Math.floor((bounds[2] - bounds[0]) / cellM + 1e-3) + 1);
+  const rows = Math.max(2, Math.floor((bounds[3] - bounds[1]) / cellM + 1e-3) + 1);
   return { originM: [bounds[0], bounds[1]], cellM, cols, rows };
 }
 

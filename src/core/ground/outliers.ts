@@ -3,7 +3,8 @@
  * cloud based object maps for household environments", Robotics and Autonomous Systems 56(11),
  * §4: for each point the mean distance to its k nearest neighbours; the distances over the cloud
  * are taken as Gaussian with mean μ and deviation σ, and a point whose mean distance exceeds
- * μ + α·σ is removed (the paper uses k = 30, α = 1; PCL's default k = 50, α = 1).
+ * μ + α·σ is removed (the paper uses k = 30, α = 1; PCL's default k = 50, α = 1). Here α = 2, and
+ * never closer than 2μ (see below).
  */
 import { BucketIndex } from './neighbours';
 
@@ -36,7 +37,9 @@ export function statisticalOutliers(xyz: Float32Array, count: number, settings: 
   }
   const mu = sum / count;
   const sigma = Math.sqrt(Math.max(0, sum2 / count - mu * mu));
-  const threshold = mu + alpha * sigma;
+  // Also at least twice the mean: on clean, even data σ is tiny and μ + ασ would cut the scan's
+  // edges, whose one-sided neighbourhoods sit ~1.4× the mean away (our addition to the method).
+  const threshold = Math.max(mu + alpha * sigma, 2 * mu);
   let removed = 0;
   for (let i = 0; i < count; i++) {
     if (mean[i] > threshold) {
