@@ -141,3 +141,21 @@ describe('buildGround', () => {
     expect(res.summary.originSource.x).toBeCloseTo(500002.123, 6);
   });
 });
+
+describe('mesh outlier removal (edge statistic)', () => {
+  it('removes a spike vertex of a flat mesh and keeps the rest', async () => {
+    const { meshEdgeOutliers } = await import('../../src/core/ground/index');
+    const n = 30;
+    const pos = new Float32Array(n * n * 3);
+    for (let j = 0; j < n; j++) for (let i = 0; i < n; i++) pos.set([i * 0.1, j * 0.1, 0], 3 * (j * n + i));
+    pos[3 * (15 * n + 15) + 2] = 5; // a spike 5 m up
+    const idx: number[] = [];
+    for (let j = 0; j < n - 1; j++) for (let i = 0; i < n - 1; i++) {
+      const a = j * n + i;
+      idx.push(a, a + 1, a + n + 1, a, a + n + 1, a + n);
+    }
+    const r = meshEdgeOutliers(pos, n * n, Uint32Array.from(idx), idx.length / 3);
+    expect(r.keep[15 * n + 15]).toBe(0);
+    expect(r.removed).toBe(1);
+  });
+});

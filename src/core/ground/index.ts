@@ -2,7 +2,7 @@
 export * from './types';
 export * from './units';
 export { localise, boundsOf, originOf, toZUp } from './localFrame';
-export { statisticalOutliers, compactPoints } from './outliers';
+export { statisticalOutliers, compactPoints, meshEdgeOutliers } from './outliers';
 export { gridPoints, gridOver, emptyShare, type GridSpec, type GridStatistic } from './gridding';
 export { rasteriseTop } from './rasterise';
 export { progressiveMorphologicalFilter } from './groundFilter';

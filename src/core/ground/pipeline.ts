@@ -4,7 +4,7 @@
  * outlier removal, levelling, ground filter, gridding or rasterising, hole filling.
  */
 import { boundsOf, cropInPlace, localise, originOf, toZUp } from './localFrame';
-import { statisticalOutliers, compactPoints } from './outliers';
+import { statisticalOutliers, compactPoints, meshEdgeOutliers } from './outliers';
 import { progressiveMorphologicalFilter } from './groundFilter';
 import { gridOver, gridPoints, type GridSpec } from './gridding';
 import { rasteriseTop } from './rasterise';
@@ -179,17 +179,16 @@ export function buildGround(raw: RawGround, settings: GroundSettings = {}): Grou
 
   let outliersRemoved = 0;
   if (settings.outliers ?? true) {
-    // Meshes: 8 neighbours (a scan app's mesh is already thinned; this halves the cost on millions of vertices).
-    const r = statisticalOutliers(xyz, count, { k: isMesh ? 8 : 16 });
+    // Meshes: each vertex's own edges are its neighbours (linear time on millions of vertices).
+    const r = isMesh ? meshEdgeOutliers(xyz, count, indices as Uint32Array, triCount) : statisticalOutliers(xyz, count, { k: 16 });
     outliersRemoved = r.removed;
     if (isMesh) {
-      // A mesh loses only triangles whose three corners are all outliers (a floating fragment); a
-      // steep face's stretched triangles have some inlier corners and stay.
-      ({ indices, triCount } = keepTriangles(indices as Uint32Array, triCount, r.keep, false));
+      // A mesh loses the triangles at an outlier vertex (a spike's long edges).
+      ({ indices, triCount } = keepTriangles(indices as Uint32Array, triCount, r.keep, true));
     } else count = compactPoints(xyz, count, r.keep, classes);
     steps.push({
       step: 'outlier removal',
-      method: `statistical outlier removal, Rusu et al. 2008 (k = ${isMesh ? 8 : 16}, mean + 2σ)`,
+      method: isMesh ? 'statistical outlier removal after Rusu et al. 2008, on each vertex\'s mesh edges (mean + 2σ, at least twice the mean)' : 'statistical outlier removal, Rusu et al. 2008 (k = 16, mean + 2σ, at least twice the mean)',
       detail: { removed: r.removed, meanNeighbourDistanceM: r.meanDistanceM, thresholdM: r.thresholdM, trianglesLeft: isMesh ? triCount : null },
     });
   }
