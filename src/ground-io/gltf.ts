@@ -173,7 +173,9 @@ export function readGltf(bytes: Uint8Array, file: string, resolve?: (uri: string
   };
   const identity = Float64Array.from([1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1]);
   const scene = json.scenes?.[json.scene ?? 0];
-  const roots = scene?.nodes ?? (json.nodes ?? []).map((_, i) => i);
+  // No scene: every node that is no other node's child is a root.
+  const children = new Set((json.nodes ?? []).flatMap((nd) => nd.children ?? []));
+  const roots = scene?.nodes ?? (json.nodes ?? []).map((_, i) => i).filter((i) => !children.has(i));
   for (const r of roots) visit(r, identity, 0);
   if (idx.length === 0) fail(file, `a mesh with ${pos.length / 3} vertices and no triangles`);
   return {

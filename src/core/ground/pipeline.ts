@@ -142,7 +142,7 @@ export function buildGround(raw: RawGround, settings: GroundSettings = {}): Grou
     xyz64[3 * i + 1] = t[1];
     xyz64[3 * i + 2] = t[2];
   }
-  let classes = raw.kind === 'points' && raw.classes ? Uint8Array.from(raw.classes.subarray(0, count0)) : null;
+  const classes = raw.kind === 'points' && raw.classes ? Uint8Array.from(raw.classes.subarray(0, count0)) : null;
   let count = count0;
   let indices = isMesh ? raw.indices : null;
   let triCount = isMesh ? raw.triangleCount : 0;
@@ -207,8 +207,6 @@ export function buildGround(raw: RawGround, settings: GroundSettings = {}): Grou
 
   let groundRemoved = 0;
   const lb = boundsOf(xyz, count);
-  const areaM2 = Math.max((lb[3] - lb[0]) * (lb[4] - lb[1]), 1e-12);
-  void areaM2;
   const spacing = coveredSpacingM(xyz, count);
   const tyre = settings.tyre ?? DEFAULT_TYRE;
   const patch = contactPatchLengthM(tyre.radiusM, tyre.deflectionM);
@@ -258,8 +256,6 @@ export function buildGround(raw: RawGround, settings: GroundSettings = {}): Grou
     grid = gridPoints(xyz, count, spec, { statistic: { percentile } });
     steps.push({ step: 'gridding', method: `the ${percentile}th percentile of the heights nearest each node (common practice)`, detail: { points: count } });
   }
-  const classesLeft = classes;
-  void classesLeft;
   return finish(grid, info, settings, unitM, up, origin, steps, warnings, {
     pointsRead: isMesh ? raw.vertexCount : raw.count,
     trianglesRead: isMesh ? raw.triangleCount : 0,
