@@ -100,3 +100,18 @@ it('a bad file shows its message and leaves the scenario untouched', async () =>
   expect(await page.evaluate(() => JSON.stringify(window.__plumbline!.store.getState().scenario))).toBe(before);
   expect(errors).toEqual([]);
 });
+
+it('a ground file dropped on the 3D view is imported and previewed', async () => {
+  const bytes = rockPly();
+  const canvas = page.locator('canvas').first();
+  const dt = await page.evaluateHandle((data) => {
+    const t = new DataTransfer();
+    t.items.add(new File([new Uint8Array(data)], 'dropped.ply'));
+    return t;
+  }, Array.from(bytes));
+  await canvas.dispatchEvent('dragover', { dataTransfer: dt });
+  await canvas.dispatchEvent('drop', { dataTransfer: dt });
+  await page.getByTestId('ground-preview').or(page.getByTestId('ground-message')).waitFor({ timeout: 60_000 });
+  expect((await page.getByTestId('ground-preview').textContent()) ?? '').toContain('dropped.ply (ply)');
+  expect(errors).toEqual([]);
+});

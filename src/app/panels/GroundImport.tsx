@@ -16,6 +16,9 @@ interface Imported {
 
 let nextId = 1;
 
+/** File names the ground import takes (a dropped scenario .json is not one of them). */
+const GROUND_FILE = /\.(tif|tiff|asc|ply|obj|glb|gltf|las|laz|xyz|csv|txt|pts)$/i;
+
 /**
  * Real ground from a file (pick it or drop it on this box): a GeoTIFF or ASCII elevation model,
  * a phone-scan mesh (PLY, OBJ, GLB/glTF), a LAS or XYZ point cloud. Read and gridded in a Web
@@ -38,6 +41,7 @@ export function GroundImport() {
   const [result, setResult] = useState<Imported | null>(null);
   const worker = useRef<Worker | null>(null);
   const canvas = useRef<HTMLCanvasElement | null>(null);
+  const box = useRef<HTMLFieldSetElement | null>(null);
   useEffect(() => () => worker.current?.terminate(), []);
 
   const settingsError = (): string | null => {
@@ -91,6 +95,32 @@ export function GroundImport() {
     };
     w.postMessage(req, [bytes]);
   };
+
+  // A ground file dropped anywhere on the page (the 3D view included) is imported here.
+  const startRef = useRef(start);
+  startRef.current = start;
+  useEffect(() => {
+    const isFiles = (e: DragEvent) => Array.from(e.dataTransfer?.types ?? []).includes('Files');
+    const over = (e: DragEvent) => {
+      if (isFiles(e)) e.preventDefault();
+    };
+    const drop = (e: DragEvent) => {
+      const f = e.dataTransfer?.files?.[0];
+      if (!f || !GROUND_FILE.test(f.name) || e.defaultPrevented) return;
+      e.preventDefault();
+      const details = box.current?.closest('details');
+      if (details) details.open = true;
+      box.current?.scrollIntoView({ block: 'nearest' });
+      setFile(f);
+      void startRef.current(f);
+    };
+    window.addEventListener('dragover', over);
+    window.addEventListener('drop', drop);
+    return () => {
+      window.removeEventListener('dragover', over);
+      window.removeEventListener('drop', drop);
+    };
+  }, []);
 
   const cancel = () => {
     worker.current?.terminate();
@@ -160,18 +190,10 @@ export function GroundImport() {
     <fieldset
       className="group"
       data-testid="ground-import"
-      onDragOver={(e) => e.preventDefault()}
-      onDrop={(e) => {
-        e.preventDefault();
-        const f = e.dataTransfer.files?.[0];
-        if (f) {
-          setFile(f);
-          void start(f);
-        }
-      }}
+      ref={box}
     >
       <legend>Real ground from a file</legend>
-      <p className="fineprint">GeoTIFF or ASCII elevation model, a scan mesh (PLY, OBJ, GLB/glTF), a LAS or XYZ point cloud. Pick or drop it here.</p>
+      <p className="fineprint">GeoTIFF or ASCII elevation model, a scan mesh (PLY, OBJ, GLB/glTF), a LAS or XYZ point cloud. Pick it, or drop it anywhere on the page.</p>
       <div className="row">
         <label className="field">
           <span className="field-label">Length unit</span>
