@@ -15,7 +15,12 @@ const EPSG_UNITS: Record<number, number> = { 9001: 1, 9002: 0.3048, 9003: 1200 /
 export interface GeoTiffOptions {
   /** Crop in the file's map coordinates [x0, y0, x1, y1]: only that window is decoded. */
   readonly crop?: readonly [number, number, number, number] | null;
+  /** Rows decoded so far of all (a large raster is read in bands of rows). */
+  readonly onProgress?: (doneRows: number, totalRows: number) => void;
 }
+
+/** Rows per band when a large raster is read piece by piece (progress, and no second full-size copy). */
+const BAND_ROWS = 256;
 
 export async function readGeoTiff(tiff: GeoTIFF, file: string, opts: GeoTiffOptions = {}): Promise<RawGround & { kind: 'raster' }> {
   let image;
@@ -74,21 +79,27 @@ export async function readGeoTiff(tiff: GeoTIFF, file: string, opts: GeoTiffOpti
     if (wx1 - wx0 < 2 || wy1 - wy0 < 2) fail(file, `the crop ${crop.join(',')} lies outside the raster or holds fewer than 2 × 2 pixels`);
   }
   const nodata = image.getGDALNoData();
-  let data;
-  try {
-    data = (await image.readRasters({ window: [wx0, wy0, wx1, wy1], samples: [0], interleave: true })) as unknown as ArrayLike<number>;
-  } catch (e) {
-    fail(file, `the pixels cannot be decoded (${reason(e, 'the data ends early')}): truncated or an unsupported compression`);
-  }
   const w = wx1 - wx0;
   const hgt = wy1 - wy0;
   const heights = new Float64Array(w * hgt);
-  for (let j = 0; j < hgt; j++) {
-    const r = ry < 0 ? hgt - 1 - j : j;
-    for (let i = 0; i < w; i++) {
-      const v = data[j * w + i];
-      heights[r * w + i] = (nodata !== null && v === nodata) || !Number.isFinite(v) ? NaN : v * zToH;
+  // Bands of rows: a progress report after each, and only one band's decoded copy at a time.
+  for (let b0 = 0; b0 < hgt; b0 += BAND_ROWS) {
+    const b1 = Math.min(hgt, b0 + BAND_ROWS);
+    let data: ArrayLike<number>;
+    try {
+      data = (await image.readRasters({ window: [wx0, wy0 + b0, wx1, wy0 + b1], samples: [0], interleave: true })) as unknown as ArrayLike<number>;
+    } catch (e) {
+      fail(file, `the pixels cannot be decoded (${reason(e, 'the data ends early')}): truncated or an unsupported compression`);
     }
+    for (let j = b0; j < b1; j++) {
+      const r = ry < 0 ? hgt - 1 - j : j;
+      const o = (j - b0) * w;
+      for (let i = 0; i < w; i++) {
+        const v = data[o + i];
+        heights[r * w + i] = (nodata !== null && v === nodata) || !Number.isFinite(v) ? NaN : v * zToH;
+      }
+    }
+    opts.onProgress?.(b1, hgt);
   }
   // Centre of the south-west pixel of the window.
   const originX = cornerX + (wx0 + 0.5) * rx;

@@ -40,6 +40,8 @@ export interface ReadOptions {
   readonly crop?: readonly [number, number, number, number] | null;
   /** Reads a file a glTF refers to. */
   readonly resolve?: (uri: string) => Uint8Array;
+  /** Progress of a large raster's decoding (rows done of all). */
+  readonly onProgress?: (done: number, total: number) => void;
 }
 
 /** Reads a whole file's bytes into raw ground. */
@@ -56,7 +58,7 @@ export async function readGroundBytes(bytes: Uint8Array, file: string, opts: Rea
       } catch (e) {
         fail(file, `the TIFF cannot be opened (${reason(e, 'no image directory')}): truncated or damaged`);
       }
-      return readGeoTiff(tiff, file, { crop: opts.crop });
+      return readGeoTiff(tiff, file, { crop: opts.crop, onProgress: opts.onProgress });
     }
     case 'asc':
       return readAsc(bytes, file);

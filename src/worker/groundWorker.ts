@@ -37,7 +37,10 @@ scope.onmessage = async (e: MessageEvent<GroundRequest>) => {
   const post = (m: GroundReply, transfer: Transferable[] = []) => scope.postMessage(m, transfer);
   try {
     post({ id: req.id, type: 'progress', done: 0, total: GROUND_STEP_COUNT, stage: 'reading' });
-    const raw = await readGroundBytes(new Uint8Array(req.bytes), req.name, { crop: req.settings.crop ?? null });
+    const raw = await readGroundBytes(new Uint8Array(req.bytes), req.name, {
+      crop: req.settings.crop ?? null,
+      onProgress: (done, total) => post({ id: req.id, type: 'progress', done: done / total, total: GROUND_STEP_COUNT, stage: `decoding rows ${done} of ${total}` }),
+    });
     const res = buildGround(raw, { ...req.settings, onStep: (stage, done) => post({ id: req.id, type: 'progress', done, total: GROUND_STEP_COUNT, stage }) });
     const g = res.grid;
     post(

@@ -24,7 +24,7 @@ function parseCrop(v: string): [number, number, number, number] {
 }
 
 /** Reads and processes a ground file (Node): a GeoTIFF reads only its window from disk. */
-export async function importGroundFile(file: string, settings: GroundSettings): Promise<GroundResult> {
+export async function importGroundFile(file: string, settings: GroundSettings, progress?: (done: number, total: number) => void): Promise<GroundResult> {
   const name = basename(file);
   let size: number;
   try {
@@ -54,7 +54,7 @@ export async function importGroundFile(file: string, settings: GroundSettings): 
       throw new GroundError(`${name}: the TIFF cannot be opened (${(e as Error).message}): truncated or damaged`);
     }
     try {
-      raw = await readGeoTiff(tiff, name, { crop: settings.crop ?? null });
+      raw = await readGeoTiff(tiff, name, { crop: settings.crop ?? null, onProgress: progress });
     } finally {
       await (tiff as unknown as { close?: () => Promise<void> }).close?.();
     }
@@ -111,7 +111,10 @@ export const groundCommand: CommandSpec = {
     if (!base.ok) return EXIT_BAD_INPUT;
     let result: GroundResult;
     try {
-      result = await importGroundFile(file, settings);
+      // Progress of a large raster on stderr (stdout stays clean for --json).
+      result = await importGroundFile(file, settings, (d, t) => {
+        if (t > 1024) io.err(`ground: decoded ${d} of ${t} rows`);
+      });
     } catch (e) {
       if (e instanceof GroundError) {
         io.err(`plumbline: ${e.message}`);
