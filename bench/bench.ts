@@ -3,6 +3,7 @@
  * in-process and returns the figures; bench/run.ts prints them and writes the JSON file; the
  * quick mode (one run each, small batches) is what tests/bench/bench.test.ts runs in CI.
  */
+import { groundFigures, GROUND_FIGURE_NAMES, GROUND_TARGETS } from './ground';
 import { makeLines } from '../src/core/analysis/lines';
 import { type PassResult, runPass } from '../src/core/analysis/pass';
 import { type RoseResult, stabilityRose } from '../src/core/analysis/rose';
@@ -71,6 +72,7 @@ export const TARGETS: readonly Target[] = [
   { name: 'settle.loadDiff', op: '<=', bound: 0.02, unit: 'of weight' },
   { name: 'grid.4096vs64', op: '<=', bound: 1.5, unit: '×' },
   { name: 'edit.field.grid1000vsPlane', op: '<=', bound: 1.5, unit: '×' },
+  ...GROUND_TARGETS,
 ];
 
 /** Figure names every run produces (lines.* may be "not available" until the analysis module lands). */
@@ -93,6 +95,7 @@ export const FIGURE_NAMES = [
   'edit.field.plane',
   'edit.field.grid1000',
   'edit.field.grid1000vsPlane',
+  ...GROUND_FIGURE_NAMES,
 ] as const;
 
 const US_PER_MS = 1000;
@@ -493,6 +496,7 @@ export async function runBench(opts: BenchOptions = {}): Promise<BenchReport> {
     push(figure('edit.field.grid1000', us(t.b), 'µs', 'the same edit on the demo with a 1000² height grid (1 M heights)'));
     push(figure('edit.field.grid1000vsPlane', ratios(t.b, t.a), '×', 'edit on the 1000² grid / edit on the plane, run by run'));
   }
+  for (const f of await groundFigures(quick, log)) push(f);
 
   return { machine: atStart, quick, figures, settle };
 }

@@ -4,6 +4,7 @@ import { PRESETS, presetFeatures } from '../presets';
 import { usePlumb, usePlumbStore } from '../../store/react';
 import { SpecField } from './SpecField';
 import { TerrainCsvImport } from './TerrainCsvImport';
+import { GroundImport } from './GroundImport';
 
 /** Profile points listed for editing; a longer profile (an import) is edited as a file. */
 const MAX_EDITED_POINTS = 40;
@@ -188,6 +189,7 @@ export function TerrainPanel() {
           ))}
         </ol>
         <TerrainCsvImport />
+        <GroundImport />
       </details>
     </section>
   );

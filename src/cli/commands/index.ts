@@ -13,9 +13,10 @@ import { linesCommand } from './lines';
 import { compareCommand } from './compare';
 import { cgCommand } from './cg';
 import { cardCommand } from './card';
+import { groundCommand } from './ground';
 
 /** Every command, in the order `plumbline --help` lists them. */
-export const COMMANDS: readonly CommandSpec[] = [checkCommand, poseCommand, tiltCommand, reportCommand, passCommand, roseCommand, linesCommand, compareCommand, cgCommand, cardCommand];
+export const COMMANDS: readonly CommandSpec[] = [checkCommand, poseCommand, tiltCommand, reportCommand, passCommand, roseCommand, linesCommand, compareCommand, cgCommand, cardCommand, groundCommand];
 
 export function findCommand(name: string): CommandSpec | undefined {
   return COMMANDS.find((c) => c.name === name);

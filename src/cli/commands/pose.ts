@@ -1,11 +1,18 @@
 /** `plumbline pose FILE`: solve the scenario's pose (with its tilt) and print the tyre loads, travel and margins. */
-import { solveEquilibrium, type SolveResult } from '../../core/index';
+import { solveEquilibrium, type Scenario, type SolveResult } from '../../core/index';
+import { onFilledGround } from '../../core/ground/index';
 import { EXIT_BAD_INPUT, EXIT_FAILURE, EXIT_OK, type CommandSpec } from '../command';
 import { UNITS_OPTION, formatKeyValues, formatTable, outputUnits, quantityColumn } from '../format';
 import { OF_STATIC_NOTE, angleText, fixed, forceText, percentText, shortText, valueText } from '../../present/units';
 import { QUASI_STATIC_CAUTION } from '../../present/words';
 import { loadScenarioFile, toJsonText } from '../load';
 import { modelOf, radToDegRounded } from '../solveScenario';
+
+/** Whether a loaded tyre's contact lies on imported ground that was filled in (not measured). */
+export function onFilled(s: Scenario, r: SolveResult): boolean {
+  const pts = r.wheels.filter((w) => !w.lifted).map((w) => [w.contactPointWorld[0], w.contactPointWorld[1]] as const);
+  return s.terrain.features.some((f) => onFilledGround(f, pts));
+}
 
 /** The documented JSON form of a pose result: SI, angles in degrees, units in the key names. */
 export function poseJson(r: SolveResult): object {
@@ -74,7 +81,8 @@ export const poseCommand: CommandSpec = {
     const s = loaded.scenario;
     const model = modelOf(s);
     const r = solveEquilibrium(model, s.pose, { tilt: s.tilt, friction: s.friction });
-    if (args.options.json) io.out(toJsonText(poseJson(r)));
+    const filled = onFilled(s, r);
+    if (args.options.json) io.out(toJsonText({ ...poseJson(r), onFilledGround: filled }));
     else {
       const u = outputUnits(args.options, s.units);
       io.out(`${s.name}: ${s.vehicle.name}`);
@@ -129,6 +137,7 @@ export const poseCommand: CommandSpec = {
         ]),
       );
       io.out('');
+      if (filled) io.out('Caution: a tyre stands on ground that was filled in by the import (no data there): its load is a guess.');
       io.out(QUASI_STATIC_CAUTION);
     }
     if (!r.standing) {

@@ -171,7 +171,25 @@ export type TerrainFeature =
       readonly rows: number;
       /** Row-major heights: index = row * cols + col, row along y, col along x (m). */
       readonly heightsM: ArrayLike<number>;
+      /** Imported ground: 1 where a height was filled in (no data there), per node; absent or null when all measured. */
+      readonly filledMask?: Uint8Array | null;
+      /** Imported ground: where it came from; absent or null for a typed grid. */
+      readonly source?: GridSource | null;
     };
+
+/** Where an imported height grid came from (kept for the record; the solver does not read it). */
+export interface GridSource {
+  /** File name as imported. */
+  readonly file: string;
+  /** Format read (geotiff, asc, ply, obj, gltf, xyz, las1.2, ...). */
+  readonly format: string;
+  /** CRS code the file stated (e.g. "EPSG:3645"), or null. */
+  readonly crs: string | null;
+  /** Source coordinates (source units, z up) of the terrain frame's origin (0, 0, 0). */
+  readonly originSource: readonly [x: number, y: number, z: number];
+  /** Metres per source unit. */
+  readonly sourceUnitM: number;
+}
 
 export type TerrainFeatureType = TerrainFeature['type'];
 

@@ -49,11 +49,16 @@ function handChecked(path: readonly (string | number)[], u: UnitSystem): Json | 
     // schema.ts: a list of at most gridNodes finite heights within ±heightMaxM (file units).
     const maxH = metricToFileUnits('length', PLAUSIBLE.heightMaxM, u);
     return {
-      description: `Node heights, row-major (index = row × cols + col), in ${unitLabel('length', u)}.`,
-      type: 'array',
-      maxItems: SCENARIO_LIMITS.gridNodes,
-      items: { type: 'number', minimum: -maxH, maximum: maxH },
+      description: `Node heights, row-major (index = row × cols + col), in ${unitLabel('length', u)}; or, for imported ground, "base64-f32le:" and the heights as little-endian float32 in base64.`,
+      anyOf: [
+        { type: 'array', maxItems: SCENARIO_LIMITS.gridNodes, items: { type: 'number', minimum: -maxH, maximum: maxH } },
+        { type: 'string', pattern: '^base64-f32le:[A-Za-z0-9+/]*={0,2}$' },
+      ],
     };
+  }
+  if (key === 'filled') {
+    // schema.ts gridFilled: base64, one bit per node, 1 = filled in by the import.
+    return { description: 'Imported ground: nodes whose height was filled in, one bit per node (least significant first), base64.', type: 'string', pattern: '^[A-Za-z0-9+/]*={0,2}$' };
   }
   return undefined;
 }

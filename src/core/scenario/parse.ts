@@ -8,6 +8,7 @@
  * inherited is ever read and nothing is polluted; (2) the zod schema for the file's unit system;
  * (3) checks across fields; (4) conversion to SI with the defaults applied in one place.
  */
+import { base64Length, compactHeightCount, decodeMask } from '../ground/base64';
 import { migrateScenario } from './migrate';
 import type { AxleSuspension, BodyShape, PathSpec, PayloadItem, Pose, TerrainFeature, Tilt, TyreSpec, Vehicle } from '../model/types';
 import type { ParseResult, Scenario, ScenarioError, UnitSystem } from './types';
@@ -290,6 +291,13 @@ export function crossChecks(data: unknown, units: UnitSystem, errors: ScenarioEr
       if (Array.isArray(heights) && heights.length !== n && heights.length <= SCENARIO_LIMITS.gridNodes) {
         push(`${p}.heights`, `must have cols × rows = ${n} values, got ${heights.length}`);
       }
+      // The compact (base64) form of imported ground, and its filled mask.
+      const count = typeof heights === 'string' ? compactHeightCount(heights) : -1;
+      if (count >= 0 && count !== n) push(`${p}.heights`, `must hold cols × rows = ${n} heights, holds ${count}`);
+      const filled = own(f, 'filled');
+      if (typeof filled === 'string' && base64Length(filled) >= 0 && base64Length(filled) !== Math.ceil(n / 8)) {
+        push(`${p}.filled`, `must hold one bit per node (${Math.ceil(n / 8)} bytes), holds ${base64Length(filled)}`);
+      }
     }
   }
 
@@ -361,7 +369,18 @@ function toScenario(d: ScenarioFileData, warnings: string[]): Scenario {
     }
   }
 
-  const features = d.terrain.features.map((f) => si<TerrainFeature>(FEATURE_FIELDS[f.type], f, { type: f.type }));
+  const features = d.terrain.features.map((f): TerrainFeature => {
+    const out = si<TerrainFeature>(FEATURE_FIELDS[f.type], f, { type: f.type });
+    if (f.type !== 'grid' || out.type !== 'grid') return out;
+    // Imported ground: the filled-cell mask and the record of where it came from.
+    return {
+      ...out,
+      ...(f.filled !== undefined ? { filledMask: decodeMask(f.filled, out.cols * out.rows) } : {}),
+      ...(f.source !== undefined
+        ? { source: { file: f.source.file, format: f.source.format, crs: f.source.crs, originSource: f.source.origin, sourceUnitM: f.source.unit } }
+        : {}),
+    } as TerrainFeature;
+  });
 
   const tilt = d.tilt ?? {};
   const downhill = tilt.downhill ?? D.tiltDownhill;

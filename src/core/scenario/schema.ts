@@ -39,6 +39,7 @@ import {
   type QuantityKind,
 } from './fields';
 import { boundMessage, controlCharProblem, describeValue, withUnit } from './messages';
+import { base64Length, decodeHeights } from '../ground/base64';
 
 export { FEATURE_TYPES, PLAUSIBLE };
 
@@ -197,9 +198,18 @@ export function buildScenarioSchema(u: UnitSystem) {
 
   /** Grid heights: checked by hand, so that a bad 4-million-node grid yields a few messages, not millions. */
   const gridHeights = () =>
-    z.unknown().transform((v, ctx) => {
+    z.unknown().transform((v: unknown, ctx) => {
       const unit = unitLabel('length', u);
-      if (!Array.isArray(v)) {
+      if (typeof v === 'string') {
+        // The compact form of imported ground (docs/scenario-format.md): float32 little-endian, base64.
+        const d = decodeHeights(v);
+        if (typeof d === 'string') {
+          ctx.addIssue({ code: 'custom', message: d });
+          return z.NEVER;
+        }
+        v = d;
+      }
+      if (!Array.isArray(v) && !(v instanceof Float64Array)) {
         ctx.addIssue({
           code: 'custom',
           message: v === undefined ? `required (a list of heights in ${unit})` : `must be a list of heights in ${unit}, got ${describeValue(v)}`,
@@ -232,6 +242,24 @@ export function buildScenarioSchema(u: UnitSystem) {
         ctx.addIssue({ code: 'custom', message: `${bad - MAX_ELEMENT_MESSAGES} more bad heights not listed` });
       }
       return bad > 0 ? z.NEVER : out;
+    });
+
+  /** Imported ground's filled mask: base64 of one bit per node (its length is checked against the grid in parse.ts). */
+  const gridFilled = () =>
+    z.string({ error: (iss: RawIssue) => `must be base64 text (one bit per node), got ${describeValue(iss.input)}` }).refine((s) => base64Length(s) >= 0 && /^[A-Za-z0-9+/]*={0,2}$/.test(s), {
+      abort: true,
+      error: 'must be base64 text (one bit per node)',
+    });
+  /** Imported ground's record of where it came from. */
+  const gridSource = () =>
+    obj({
+      file: text(L.nameChars, false),
+      format: text(40, true),
+      crs: z.union([text(80, true), z.null()], { error: (iss: RawIssue) => `must be a CRS code or null, got ${describeValue(iss.input)}` }),
+      origin: z.tuple([z.number().refine(Number.isFinite), z.number().refine(Number.isFinite), z.number().refine(Number.isFinite)], {
+        error: (iss: RawIssue) => `must be [x, y, z] in the source's units, got ${describeValue(iss.input)}`,
+      }),
+      unit: z.number({ error: 'must be metres per source unit' }).gt(0, { error: (iss: RawIssue) => `must be > 0 m, got ${describeValue(iss.input)}` }),
     });
 
   /** Profile points [s, z], s strictly increasing. */
@@ -312,7 +340,11 @@ export function buildScenarioSchema(u: UnitSystem) {
     return out;
   };
 
-  const featureVariant = (t: (typeof FEATURE_TYPES)[number]) => obj({ type: z.literal(t), ...shapeOf(FEATURE_FIELDS[t]) });
+  // Imported ground (a grid) may also carry its filled-cell mask and where it came from.
+  const featureVariant = (t: (typeof FEATURE_TYPES)[number]) =>
+    t === 'grid'
+      ? obj({ type: z.literal(t), ...shapeOf(FEATURE_FIELDS[t]), filled: gridFilled().optional(), source: gridSource().optional() })
+      : obj({ type: z.literal(t), ...shapeOf(FEATURE_FIELDS[t]) });
   const feature = z.discriminatedUnion(
     'type',
     [

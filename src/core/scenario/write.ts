@@ -5,6 +5,7 @@
  * in the file's unit that reads back as the same SI value (`fileNumber`), so a value typed in the
  * file's unit is written as typed (1720 lb, not 1719.9999999999998).
  */
+import type { TerrainFeature } from '../model/types';
 import type { Scenario, UnitSystem } from './types';
 import { DOWNHILL_NAMES, type DownhillName } from './schema';
 import {
@@ -21,10 +22,12 @@ import {
   TYRE_FIELDS,
   VEHICLE_FIELDS,
   fileNumber,
+  fromSI,
   rowsToFile,
   type FieldRow,
 } from './fields';
 import { buildsToFile } from './builds';
+import { encodeHeights, encodeMask } from '../ground/base64';
 
 /** JSON-ready scenario file data. */
 export type ScenarioFileObject = Record<string, unknown>;
@@ -33,6 +36,16 @@ export type ScenarioFileObject = Record<string, unknown>;
 export function scenarioToFile(s: Scenario, units: UnitSystem = s.units): ScenarioFileObject {
   const file = (rows: readonly FieldRow[], si: unknown, head: Record<string, unknown> = {}) => rowsToFile(rows, si, units, head);
   const v = s.vehicle;
+  const featureToFile = (f: TerrainFeature): Record<string, unknown> => {
+    const out = file(FEATURE_FIELDS[f.type], f, { type: f.type });
+    if (f.type === 'grid' && f.source) {
+      // Imported ground: heights as base64 float32 (compact, fast to read back), the filled mask one bit per node.
+      out.heights = encodeHeights(f.heightsM, fromSI('length', 1, units));
+      if (f.filledMask) out.filled = encodeMask(f.filledMask);
+      out.source = { file: f.source.file, format: f.source.format, crs: f.source.crs, origin: [...f.source.originSource], unit: f.source.sourceUnitM };
+    }
+    return out;
+  };
   // A downhill direction that is exactly one of the named ones is written by name.
   let downhill: number | DownhillName = fileNumber('angle', s.tilt.downhillRad, units);
   for (const name of Object.keys(DOWNHILL_NAMES) as DownhillName[]) {
@@ -53,7 +66,7 @@ export function scenarioToFile(s: Scenario, units: UnitSystem = s.units): Scenar
     units,
     notes: s.notes,
     vehicle,
-    terrain: { features: s.terrain.features.map((f) => file(FEATURE_FIELDS[f.type], f, { type: f.type })) },
+    terrain: { features: s.terrain.features.map(featureToFile) },
     pose: file(POSE_FIELDS, s.pose),
     tilt: { ...file(TILT_FIELDS, s.tilt), downhill },
   };

@@ -1,0 +1,144 @@
+/**
+ * Ground import figures: `ground.ply50mb` (parse and grid a generated 50 MB binary PLY mesh of an
+ * invented rock slab; its peak memory growth over the file size) and `ground.tif4000` (a generated
+ * 4000² DEFLATE GeoTIFF made by GDAL's gdal_translate: a 1000² window, and the whole file).
+ * Quick mode uses small files. The GeoTIFF figures need gdal-bin; without it they say so.
+ */
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fromFile } from 'geotiff';
+import { buildGround } from '../src/core/ground/index';
+import { readGroundBytes } from '../src/ground-io/read';
+import { readGeoTiff } from '../src/ground-io/geotiff';
+import { figure, unavailable, type Figure } from './harness';
+
+export const GROUND_TARGETS = [
+  { name: 'ground.ply50mb', op: '<=', bound: 1500, unit: 'ms' },
+  { name: 'ground.ply50mb.memory', op: '<=', bound: 4, unit: '× file' },
+  { name: 'ground.tif4000.window1000', op: '<=', bound: 1000, unit: 'ms' },
+  { name: 'ground.tif4000.whole', op: '<=', bound: 10000, unit: 'ms' },
+] as const;
+
+export const GROUND_FIGURE_NAMES = ['ground.ply50mb', 'ground.ply50mb.memory'] as const;
+
+/** A binary PLY mesh of an n × n lattice over a rough invented slab (1 cm spacing). */
+function plyLattice(n: number): Uint8Array {
+  const nv = n * n;
+  const nt = 2 * (n - 1) * (n - 1);
+  const header = new TextEncoder().encode(
+    `ply\nformat binary_little_endian 1.0\nelement vertex ${nv}\nproperty float x\nproperty float y\nproperty float z\nelement face ${nt}\nproperty list uchar int vertex_indices\nend_header\n`,
+  );
+  const out = new Uint8Array(header.length + nv * 12 + nt * 13);
+  out.set(header);
+  const dv = new DataView(out.buffer);
+  let o = header.length;
+  for (let j = 0; j < n; j++) {
+    for (let i = 0; i < n; i++) {
+      const x = i * 0.01;
+      const y = j * 0.01;
+      dv.setFloat32(o, x, true);
+      dv.setFloat32(o + 4, y, true);
+      dv.setFloat32(o + 8, 0.3 * Math.sin(x * 0.9) * Math.cos(y * 1.1) + 0.02 * Math.sin(x * 17 + y * 13), true);
+      o += 12;
+    }
+  }
+  for (let j = 0; j < n - 1; j++) {
+    for (let i = 0; i < n - 1; i++) {
+      const a = j * n + i;
+      for (const [p, q, r] of [[a, a + 1, a + n + 1], [a, a + n + 1, a + n]]) {
+        dv.setUint8(o, 3);
+        dv.setInt32(o + 1, p, true);
+        dv.setInt32(o + 5, q, true);
+        dv.setInt32(o + 9, r, true);
+        o += 13;
+      }
+    }
+  }
+  return out;
+}
+
+export async function groundFigures(quick: boolean, log: (line: string) => void): Promise<Figure[]> {
+  const figures: Figure[] = [];
+  // --- ground.ply50mb: ~38 bytes per lattice vertex (12 + 2 × 13): 1150² ≈ 50 MB.
+  const n = quick ? 120 : 1150;
+  const bytes = plyLattice(n);
+  const mb = bytes.length / 1e6;
+  const runs = quick ? 1 : 3;
+  const samples: number[] = [];
+  let memRatio = 0;
+  let cells = 0;
+  for (let r = 0; r < runs + (quick ? 0 : 1); r++) {
+    (globalThis as { gc?: () => void }).gc?.();
+    const before = process.memoryUsage();
+    let peak = before.rss;
+    const timer = setInterval(() => {
+      peak = Math.max(peak, process.memoryUsage().rss);
+    }, 5);
+    const t0 = performance.now();
+    const raw = await readGroundBytes(bytes, 'bench.ply');
+    const res = buildGround(raw, { cellM: 0.02, fill: true, unitM: 1, up: 'z' });
+    const ms = performance.now() - t0;
+    peak = Math.max(peak, process.memoryUsage().rss);
+    clearInterval(timer);
+    cells = res.summary.cells;
+    if (quick || r > 0) {
+      samples.push(ms);
+      memRatio = Math.max(memRatio, (peak - before.rss) / bytes.length);
+    }
+  }
+  figures.push(figure('ground.ply50mb', samples, 'ms', `read and grid a ${mb.toFixed(1)} MB binary PLY mesh (${n * n} vertices, ${2 * (n - 1) * (n - 1)} triangles) at 2 cm: outlier removal, rasterising, fill; ${cells} nodes`));
+  figures.push(figure('ground.ply50mb.memory', [memRatio], '× file', 'resident-memory growth during the import (sampled every 5 ms) over the file size'));
+  log(`ground.ply50mb: ${samples.map((s) => s.toFixed(0)).join(', ')} ms`);
+
+  // --- ground.tif4000: a DEFLATE, tiled Float32 GeoTIFF made by gdal_translate from raw heights.
+  const size = quick ? 500 : 4000;
+  const win = quick ? 125 : 1000;
+  let gdal = true;
+  try {
+    execFileSync('gdal_translate', ['--version'], { stdio: 'ignore' });
+  } catch {
+    gdal = false;
+  }
+  if (!gdal) {
+    figures.push(unavailable('ground.tif4000.window1000', 'ms', 'gdal_translate (gdal-bin) is not installed: the GeoTIFF cannot be generated'));
+    figures.push(unavailable('ground.tif4000.whole', 'ms', 'gdal_translate (gdal-bin) is not installed'));
+    return figures;
+  }
+  const dir = mkdtempSync(join(tmpdir(), 'plumbline-bench-'));
+  try {
+    const h = new Float32Array(size * size);
+    for (let r = 0; r < size; r++) for (let c = 0; c < size; c++) h[r * size + c] = 100 + 20 * Math.sin(c / 300) * Math.cos(r / 410) + 0.5 * Math.sin(c / 7 + r / 11);
+    writeFileSync(join(dir, 'dem.bil'), new Uint8Array(h.buffer));
+    writeFileSync(join(dir, 'dem.hdr'), `ENVI\nsamples = ${size}\nlines = ${size}\nbands = 1\nheader offset = 0\nfile type = ENVI Standard\ndata type = 4\ninterleave = bsq\nbyte order = 0\nmap info = {UTM, 1, 1, 500000, 4200000, 1, 1, 10, North, WGS-84}\n`);
+    const tif = join(dir, 'dem.tif');
+    execFileSync('gdal_translate', ['-q', '-of', 'GTiff', '-a_srs', 'EPSG:32610', '-co', 'COMPRESS=DEFLATE', '-co', 'TILED=YES', join(dir, 'dem.bil'), tif]);
+    const x0 = 500000 + (size / 2 - win / 2);
+    const y0 = 4200000 - (size / 2 + win / 2);
+    const crop: [number, number, number, number] = [x0, y0, x0 + win - 1, y0 + win - 1];
+    const winMs: number[] = [];
+    const wholeMs: number[] = [];
+    for (let r = 0; r < (quick ? 1 : 3); r++) {
+      let t0 = performance.now();
+      let tiff = await fromFile(tif);
+      const w = buildGround(await readGeoTiff(tiff, 'dem.tif', { crop }), { crop });
+      winMs.push(performance.now() - t0);
+      await tiff.close();
+      if (r === 0) log(`ground.tif4000 window: ${w.grid.cols} × ${w.grid.rows}`);
+      // The whole raster decoded to heights (a 4000² grid is more than a scenario holds: the import then asks for a crop).
+      t0 = performance.now();
+      tiff = await fromFile(tif);
+      let reports = 0;
+      const whole = await readGeoTiff(tiff, 'dem.tif', { onProgress: () => void reports++ });
+      wholeMs.push(performance.now() - t0);
+      await tiff.close();
+      if (r === 0) log(`ground.tif4000 whole: ${whole.cols} × ${whole.rows}, ${reports} progress reports`);
+    }
+    figures.push(figure('ground.tif4000.window1000', winMs, 'ms', `a ${win}² window of a ${size}² DEFLATE tiled GeoTIFF (read from disk, only the tiles it needs) to a grid`));
+    figures.push(figure('ground.tif4000.whole', wholeMs, 'ms', `the whole ${size}² GeoTIFF decoded to heights, in bands of 256 rows with a progress report after each`));
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+  return figures;
+}

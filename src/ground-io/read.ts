@@ -1,0 +1,76 @@
+/**
+ * Which reader a file goes to: by its extension, then by its first bytes. Pure (bytes in, raw
+ * ground out): the CLI and the app's worker share it.
+ */
+import { fromArrayBuffer } from 'geotiff';
+import type { RawGround } from '../core/ground/pipeline';
+import { fail, reason } from './bytes';
+import { readAsc } from './asc';
+import { readGeoTiff } from './geotiff';
+import { readGltf } from './gltf';
+import { readLas } from './las';
+import { readObj } from './obj';
+import { readPly } from './ply';
+import { readXyz } from './xyz';
+
+export type GroundFormat = 'geotiff' | 'asc' | 'ply' | 'obj' | 'gltf' | 'xyz' | 'las';
+
+export const FORMAT_LIST = 'GeoTIFF (.tif), ESRI ASCII grid (.asc), PLY, OBJ, GLB/glTF, LAS (.las), XYZ/CSV points';
+
+export function detectFormat(file: string, head: Uint8Array): GroundFormat {
+  const ext = /\.([A-Za-z0-9]+)$/.exec(file)?.[1].toLowerCase() ?? '';
+  const byExt: Record<string, GroundFormat> = {
+    tif: 'geotiff', tiff: 'geotiff', asc: 'asc', ply: 'ply', obj: 'obj', glb: 'gltf', gltf: 'gltf', las: 'las', laz: 'las',
+    xyz: 'xyz', csv: 'xyz', txt: 'xyz', pts: 'xyz',
+  };
+  if (byExt[ext]) return byExt[ext];
+  const m = String.fromCharCode(...head.subarray(0, 4));
+  if (m === 'LASF') return 'las';
+  if (m === 'glTF') return 'gltf';
+  if (m.startsWith('ply')) return 'ply';
+  if (m === 'II*\0' || m === 'MM\0*' || m === 'II+\0' || m === 'MM\0+') return 'geotiff';
+  if (head.length === 0) fail(file, 'the file is empty');
+  fail(file, `not a ground format this import knows (by its name or first bytes); it reads ${FORMAT_LIST}`);
+}
+
+const TIFF_MAGICS = ['II*\0', 'MM\0*', 'II+\0', 'MM\0+'];
+
+export interface ReadOptions {
+  /** Crop in source coordinates: a GeoTIFF decodes only that window. */
+  readonly crop?: readonly [number, number, number, number] | null;
+  /** Reads a file a glTF refers to. */
+  readonly resolve?: (uri: string) => Uint8Array;
+  /** Progress of a large raster's decoding (rows done of all). */
+  readonly onProgress?: (done: number, total: number) => void;
+}
+
+/** Reads a whole file's bytes into raw ground. */
+export async function readGroundBytes(bytes: Uint8Array, file: string, opts: ReadOptions = {}): Promise<RawGround> {
+  if (bytes.length === 0) fail(file, 'the file is empty');
+  const format = detectFormat(file, bytes.subarray(0, 16));
+  switch (format) {
+    case 'geotiff': {
+      if (!TIFF_MAGICS.includes(String.fromCharCode(...bytes.subarray(0, 4)))) fail(file, 'not a TIFF (the first bytes are not "II*" or "MM*")');
+      let tiff;
+      try {
+        const ab = bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength) as ArrayBuffer;
+        tiff = await fromArrayBuffer(ab);
+      } catch (e) {
+        fail(file, `the TIFF cannot be opened (${reason(e, 'no image directory')}): truncated or damaged`);
+      }
+      return readGeoTiff(tiff, file, { crop: opts.crop, onProgress: opts.onProgress });
+    }
+    case 'asc':
+      return readAsc(bytes, file);
+    case 'ply':
+      return readPly(bytes, file);
+    case 'obj':
+      return readObj(bytes, file);
+    case 'gltf':
+      return readGltf(bytes, file, opts.resolve);
+    case 'las':
+      return readLas(bytes, file);
+    case 'xyz':
+      return readXyz(bytes, file);
+  }
+}
