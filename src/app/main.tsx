@@ -7,7 +7,7 @@
 import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import demo from '../../assets/scenarios/side-hill-stock.json';
-import { parseScenario, scenarioToFile, type Scenario, type UnitSystem } from '../core';
+import { parseScenario, scenarioToFile, type Scenario } from '../core';
 import { browserGarage } from '../store/garage';
 import { idbStore } from '../store/idb';
 import { SAVE_CHANNEL, loadLatestAutosave, scenarioFromHash, startAutosave, type AutosaveOptions, type Restored } from '../store/persist';
@@ -50,7 +50,7 @@ const sameFile = (a: Scenario, b: Scenario): boolean => JSON.stringify(scenarioT
 
 async function start(root: HTMLElement): Promise<void> {
   const database = idbStore('autosave');
-  let saved: Restored | null = null;
+  let saved: Restored | null;
   try {
     saved = await loadLatestAutosave(localStorage, database);
   } catch {

