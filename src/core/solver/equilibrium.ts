@@ -79,7 +79,7 @@ function allWheelsLoaded(model: VehicleModel): boolean {
   return true;
 }
 
-/** Below this angle between gravity and the fitted ground's normal (rad) the reference start goes straight to the pose. */
+/** Below this angle between gravity and the fitted ground's normal (rad) the continuation without softening is skipped. */
 const DIRECT_MAX_RAD = (2 * Math.PI) / 180;
 /** Largest gravity turn per continuation step (rad). */
 const CONTINUATION_STEP_RAD = (5 * Math.PI) / 180;
@@ -138,8 +138,8 @@ function follow(model: VehicleModel, x: Float64Array, beta: number, steps: numbe
  * The reference start (see the module comment) into x: the vehicle set down at ride height on a
  * plane fitted to the ground under its wheels, with gravity along that plane's normal, and gravity
  * then turned to the real one (the slope of the ground and the tilt applied progressively, as a
- * tilt table is raised); where gravity is within DIRECT_MAX_RAD of the normal, one Newton solve from
- * the guess. A stable landing ends it; else the same path with the tyres eased in from soft. On
+ * tilt table is raised), after one Newton solve straight from the set-down pose under the real gravity.
+ * A stable landing ends it; else the same path with the tyres eased in from soft. On
  * return the model's buffers hold x's full evaluation and residualOut its residual.
  */
 function solveReference(model: VehicleModel, x: Float64Array, tol: number, maxIt: number): Landing {
@@ -158,7 +158,8 @@ function solveReference(model: VehicleModel, x: Float64Array, tol: number, maxIt
   for (let attempt = 0; attempt < 3; attempt++) {
     let out: NewtonOutcome;
     if (attempt === 0) {
-      if (beta >= DIRECT_MAX_RAD) continue;
+      // Straight from the set-down pose under the real gravity: where it lands on a stable
+      // equilibrium (nearly always) that is the one the continuation reaches too.
       out = newton(model, x, tol, maxIt, true);
     } else if (attempt === 1 && beta < DIRECT_MAX_RAD) {
       // Turning gravity by under DIRECT_MAX_RAD without softening is the direct solve again.
