@@ -34,7 +34,7 @@ function joinValues(spec: CommandSpec, argv: readonly string[]): string[] {
   for (let i = 0; i < argv.length; i++) {
     const token = argv[i];
     if (token === '--') {
-      out.push(...argv.slice(i));
+      for (let j = i; j < argv.length; j++) out.push(argv[j]);
       break;
     }
     const opt = token.startsWith('-') && token !== '-' && !token.includes('=') ? findOption(spec, token) : undefined;

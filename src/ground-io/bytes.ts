@@ -12,7 +12,8 @@ export function fail(file: string, problem: string): never {
 export function headText(bytes: Uint8Array, max: number): string {
   const n = Math.min(bytes.length, max);
   let s = '';
-  for (let i = 0; i < n; i += 8192) s += String.fromCharCode(...bytes.subarray(i, Math.min(n, i + 8192)));
+  // One byte, one character (Latin-1), without spreading a large array into a call's arguments.
+  for (let i = 0; i < n; i++) s += String.fromCharCode(bytes[i]);
   return s;
 }
 

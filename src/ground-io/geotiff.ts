@@ -8,9 +8,10 @@
  */
 import type { GeoTIFF } from 'geotiff';
 import type { RawGround } from '../core/ground/pipeline';
+import { LENGTH_UNITS_M } from '../core/ground/units';
 import { fail, reason } from './bytes';
 
-const EPSG_UNITS: Record<number, number> = { 9001: 1, 9002: 0.3048, 9003: 1200 / 3937 };
+const EPSG_UNITS: Record<number, number> = { 9001: LENGTH_UNITS_M.m, 9002: LENGTH_UNITS_M.ft, 9003: LENGTH_UNITS_M.usft };
 
 export interface GeoTiffOptions {
   /** Crop in the file's map coordinates [x0, y0, x1, y1]: only that window is decoded. */

@@ -6,13 +6,14 @@
  * OGC WKT record (2112); the length unit from ProjLinearUnitsGeoKey / VerticalUnitsGeoKey.
  */
 import type { RawGround } from '../core/ground/pipeline';
+import { LENGTH_UNITS_M } from '../core/ground/units';
 import { checkCount, fail } from './bytes';
 
 /** Smallest record length of each point data record format (spec tables 7–17). */
 const MIN_RECORD = [20, 28, 26, 34, 57, 63, 30, 36, 38, 59, 67];
 
 /** EPSG unit of measure codes to metres (EPSG dataset: 9001 metre, 9002 foot, 9003 US survey foot). */
-const EPSG_UNITS: Record<number, number> = { 9001: 1, 9002: 0.3048, 9003: 1200 / 3937 };
+const EPSG_UNITS: Record<number, number> = { 9001: LENGTH_UNITS_M.m, 9002: LENGTH_UNITS_M.ft, 9003: LENGTH_UNITS_M.usft };
 
 export interface LasHeader {
   readonly versionMajor: number;

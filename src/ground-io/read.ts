@@ -24,7 +24,7 @@ export function detectFormat(file: string, head: Uint8Array): GroundFormat {
     xyz: 'xyz', csv: 'xyz', txt: 'xyz', pts: 'xyz',
   };
   if (byExt[ext]) return byExt[ext];
-  const m = String.fromCharCode(...head.subarray(0, 4));
+  const m = new TextDecoder("latin1").decode(head.subarray(0, 4));
   if (m === 'LASF') return 'las';
   if (m === 'glTF') return 'gltf';
   if (m.startsWith('ply')) return 'ply';
@@ -50,7 +50,7 @@ export async function readGroundBytes(bytes: Uint8Array, file: string, opts: Rea
   const format = detectFormat(file, bytes.subarray(0, 16));
   switch (format) {
     case 'geotiff': {
-      if (!TIFF_MAGICS.includes(String.fromCharCode(...bytes.subarray(0, 4)))) fail(file, 'not a TIFF (the first bytes are not "II*" or "MM*")');
+      if (!TIFF_MAGICS.includes(new TextDecoder("latin1").decode(bytes.subarray(0, 4)))) fail(file, 'not a TIFF (the first bytes are not "II*" or "MM*")');
       let tiff;
       try {
         const ab = bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength) as ArrayBuffer;

@@ -30,7 +30,7 @@ import * as CANNON from 'cannon-es';
 import type { Pose, Vehicle, WheelName } from '../core/model/types';
 import { CannonRig, type CannonRigOptions } from './cannonSettle';
 
-const DEG = Math.PI / 180;
+import { RAD_PER_DEG as DEG } from '../core/scenario/fields';
 /** A departure that is held again for this long was not one (s). */
 const RESUPPORT_S = 0.5;
 /**

@@ -22,7 +22,7 @@ import {
   type Vehicle,
 } from '../core';
 
-const DEG = Math.PI / 180;
+import { RAD_PER_DEG as DEG } from '../present/units';
 const LEVEL = { features: [] };
 const ORIGIN = { xM: 0, yM: 0, headingRad: 0 };
 

@@ -2,9 +2,9 @@ import { useEffect, useMemo } from 'react';
 import * as THREE from 'three';
 import { TerrainField, HEADING_MAX_EXTRA_RAD } from '../core';
 import { usePlumb } from '../store/react';
-import { ROSE_M_PER_DEG, useHeadingSweepShown } from '../app/panels/headingSweepState';
+import { ROSE_M_PER_DEG, useHeadingSweepShown } from '../store/headingSweep';
 
-const DEG = 180 / Math.PI;
+import { DEG_PER_RAD as DEG } from '../present/units';
 const LIFT_M = 0.06;
 
 /**

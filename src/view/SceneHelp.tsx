@@ -1,4 +1,4 @@
-import { sceneHint, useInputKind } from '../app/panels/inputKind';
+import { sceneHint, useInputKind } from '../store/inputKind';
 
 /** The 3D view's hint, for the input in use (mouse, finger or pen). */
 export function SceneHelp() {

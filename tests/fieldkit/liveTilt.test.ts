@@ -7,7 +7,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { gravityInDevice, readAxis, vehicleAxes, vehicleTilt, type Vec3 } from '../../src/app/panels/liveTiltMath';
-import { inputKindOf, sceneHint } from '../../src/app/panels/inputKind';
+import { inputKindOf, sceneHint } from '../../src/store/inputKind';
 
 const DEG = Math.PI / 180;
 

@@ -6,7 +6,7 @@ import { usePlumb, usePlumbStore } from '../../store/react';
 
 type UnitChoice = 'file' | keyof typeof LENGTH_UNITS_M;
 const UNIT_CHOICES: readonly UnitChoice[] = ['file', 'm', 'cm', 'mm', 'ft', 'in'];
-const IN_M = 0.0254;
+import { M_PER_IN as IN_M } from '../../present/units';
 
 interface Imported {
   readonly name: string;

@@ -1,11 +1,11 @@
 import { useState } from 'react';
 import { HEADING_MAX_EXTRA_RAD, type HeadingResult, type HeadingSweepResult, type Scenario } from '../../core';
 import { runHeadings } from '../../worker/client';
-import { DEG_PER_RAD, distanceText } from '../../present/units';
+import { DEG_PER_RAD, distanceText, shortText } from '../../present/units';
 import { downhillWords } from '../../present/words';
 import { useWorkerJob } from './useWorkerJob';
 import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../../store/react';
-import { headingSweepStore, ROSE_M_PER_DEG } from './headingSweepState';
+import { headingSweepStore, ROSE_M_PER_DEG } from '../../store/headingSweep';
 import './fieldkit.css';
 
 type Done = { readonly result: HeadingSweepResult; readonly wallMs: number; readonly workers: number; readonly for: Scenario };
@@ -147,7 +147,7 @@ export function HeadingSweepPanel() {
             <HeadingChart r={r} />
             <p className="fineprint">
               Solid: extra tilt to the tip; dashed: to the first wheel lift; red: the worst heading. Over the terrain the rose's radius is{' '}
-              {units === 'metric' ? `${ROSE_M_PER_DEG * 100} cm` : `${(ROSE_M_PER_DEG / 0.0254).toFixed(1)} in`} per degree of extra tilt to the tip (short = worst).{' '}
+              {shortText(ROSE_M_PER_DEG, units)} per degree of extra tilt to the tip (short = worst).{' '}
               {r.headings.length} headings in {done!.wallMs.toFixed(0)} ms on {done!.workers} {done!.workers === 1 ? 'worker' : 'workers'}. Quasi-static
               estimates: real margins are smaller; keep far inside them and to the vehicle maker's limits.
             </p>

@@ -4,7 +4,7 @@ import { usePlumb, usePlumbStore } from '../../store/react';
 import { gravityInDevice, readAxis, vehicleAxes, vehicleTilt, type AxisLimits, type AxisReading, type Mount, type Vec3 } from './liveTiltMath';
 import './fieldkit.css';
 
-const DEG = 180 / Math.PI;
+import { DEG_PER_RAD as DEG } from '../../present/units';
 /** No reading this long after starting: the device has no orientation sensor (ms). */
 const NO_SENSOR_MS = 2500;
 

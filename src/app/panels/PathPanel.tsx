@@ -1,14 +1,14 @@
 import { useState } from 'react';
 import { candidateSpecs, lineToPathOrNull, rankCandidates, type LineSpec, type LineSummary, type PathSpec, type RankedCandidate, type Scenario } from './pathPanelDeps';
 import { runLineSpecs, type LineSweepReply } from '../../worker/client';
-import { DEG_PER_RAD, distanceText } from '../../present/units';
+import { DEG_PER_RAD, distanceText, toDisplay } from '../../present/units';
 import { setIn, validate } from '../edit';
 import { useWorkerJob } from './useWorkerJob';
 import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../../store/react';
 import { pathDrawStore, usePathDraw, type DrawnLine } from '../../view/PathDrawState';
 import { drawnLineColour } from '../../view/PathDraw';
 import './fieldkit.css';
-import { useInputKind } from './inputKind';
+import { useInputKind } from '../../store/inputKind';
 
 type Done = LineSweepReply & { readonly for: Scenario; readonly drawn: readonly DrawnLine[] };
 
@@ -16,7 +16,7 @@ type Done = LineSweepReply & { readonly for: Scenario; readonly drawn: readonly 
 const DEFAULT_STEP_M = 0.05;
 
 function xyText(p: readonly [number, number], units: Scenario['units']): string {
-  const f = (m: number) => (units === 'metric' ? m.toFixed(2) : (m / 0.3048).toFixed(1));
+  const f = (m: number) => toDisplay('distance', m, units).toFixed(units === 'metric' ? 2 : 1);
   return `(${f(p[0])}, ${f(p[1])}) ${units === 'metric' ? 'm' : 'ft'}`;
 }
 

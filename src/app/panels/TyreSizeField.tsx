@@ -1,12 +1,13 @@
 import { useMemo, useState } from 'react';
 import type { Scenario, UnitSystem } from '../../core';
 import { parseTyreSize, parseWheelSize, type TyreSize } from '../../core/scenario/tyreSize';
+import { toDisplay, unitSymbol } from '../../present/units';
 import { setIn, validate } from '../edit';
 import { usePlumb, usePlumbStore } from '../../store/react';
 
 /** A size length in the user's units: mm to 0.1 in metric, inches to 0.1 in imperial (a size is not known better). */
 function sizeLength(m: number, units: UnitSystem): string {
-  return units === 'metric' ? `${(m * 1000).toFixed(1)} mm` : `${(m / 0.0254).toFixed(1)} in`;
+  return `${toDisplay('short', m, units).toFixed(1)} ${unitSymbol('short', units)}`;
 }
 
 function stiffnessText(nPerM: number, units: UnitSystem): string {

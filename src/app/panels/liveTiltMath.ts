@@ -8,7 +8,7 @@
 
 export type Vec3 = readonly [number, number, number];
 
-const DEG = Math.PI / 180;
+import { RAD_PER_DEG as DEG } from '../../present/units';
 
 /**
  * Gravity's direction (unit) in the device frame (x right, y toward the top edge, z out of the screen).

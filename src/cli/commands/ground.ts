@@ -45,7 +45,7 @@ export async function importGroundFile(file: string, settings: GroundSettings, p
   let raw: RawGround;
   const format = detectFormat(name, head);
   if (format === 'geotiff') {
-    const m = String.fromCharCode(...head.subarray(0, 4));
+    const m = new TextDecoder("latin1").decode(head.subarray(0, 4));
     if (!['II*\0', 'MM\0*', 'II+\0', 'MM\0+'].includes(m)) throw new GroundError(`${name}: not a TIFF (the first bytes are not "II*" or "MM*")`);
     let tiff;
     try {

@@ -18,7 +18,7 @@ import { DEFAULT_FRICTION, buildModel, solveEquilibrium } from '../solver/equili
 import type { VehicleModel } from '../solver/model';
 import { tiltSweep } from '../solver/tilt';
 
-const DEG = Math.PI / 180;
+import { RAD_PER_DEG as DEG } from '../scenario/fields';
 /** Below this slope the spot counts as level and the extra tilt is taken left side down (rad): 0.1°. */
 export const LEVEL_SLOPE_RAD = 0.1 * DEG;
 /** Largest extra tilt tried (rad). */

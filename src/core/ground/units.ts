@@ -1,5 +1,7 @@
+import { M_PER_FT, M_PER_IN } from '../scenario/fields';
 /** Length units a ground file may be in, metres per unit. */
-export const LENGTH_UNITS_M = { m: 1, cm: 0.01, mm: 0.001, ft: 0.3048, in: 0.0254, usft: 1200 / 3937 } as const;
+/** Metres per source length unit (the US survey foot is 1200/3937 m: NIST Handbook 44, appendix C). */
+export const LENGTH_UNITS_M = { m: 1, cm: 0.01, mm: 0.001, ft: M_PER_FT, in: M_PER_IN, usft: 1200 / 3937 } as const;
 export type GroundUnit = keyof typeof LENGTH_UNITS_M;
 
 /**

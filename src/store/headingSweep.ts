@@ -1,7 +1,7 @@
 /** The last heading sweep, shared by its panel and its rose over the terrain in the 3D view. */
 import { createStore } from 'zustand/vanilla';
 import { useStore } from 'zustand';
-import type { HeadingSweepResult } from '../../core';
+import type { HeadingSweepResult } from '../core';
 
 export interface HeadingSweepShown {
   /** The sweep drawn over the terrain, or null (none, or hidden). */
