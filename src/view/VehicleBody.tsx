@@ -16,6 +16,8 @@ export function VehicleBody({ opacity = 0.28 }: VehicleBodyProps) {
   const api = useSceneApi();
   const body = usePlumb((s) => shownVehicle(s).body);
   const wheelbaseM = usePlumb((s) => shownVehicle(s).wheelbaseM);
+  // A pose that does not stand is drawn as a ghost: red, faint, with a dashed outline; never as a balance.
+  const standing = usePlumb((s) => shownResult(s).standing);
   const group = useRef<THREE.Group>(null);
   const mesh = useRef<THREE.Mesh>(null);
   const { box, edges, centre } = useMemo(() => {
@@ -47,12 +49,12 @@ export function VehicleBody({ opacity = 0.28 }: VehicleBodyProps) {
     g.matrixWorldNeedsUpdate = true;
   });
   return (
-    <group ref={group} matrixAutoUpdate={false} name="body">
+    <group ref={group} matrixAutoUpdate={false} name="body" userData={{ standing }}>
       <mesh ref={mesh} geometry={box} position={centre} renderOrder={2}>
-        <meshLambertMaterial color="#8fa3b8" transparent opacity={opacity} depthWrite={false} />
+        <meshLambertMaterial color={standing ? '#8fa3b8' : '#c0392b'} transparent opacity={standing ? opacity : opacity * 0.5} depthWrite={false} />
       </mesh>
       <lineSegments geometry={edges} position={centre}>
-        <lineBasicMaterial color="#1d2a36" />
+        <lineBasicMaterial color={standing ? '#1d2a36' : '#c0392b'} transparent opacity={standing ? 1 : 0.6} />
       </lineSegments>
       {/* Nose marker: a bar across the front face so the heading reads at a glance. */}
       <mesh position={[centre.x + (wheelbaseM / 2 + body.frontOverhangM - centre.x), 0, body.bellyClearanceM + 0.12]}>

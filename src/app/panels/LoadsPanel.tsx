@@ -29,6 +29,14 @@ export function LoadsPanel() {
       <p className="weight" data-testid="vehicle-weight" data-weight-n={r.weightN}>
         Vehicle weight with payload: <b>{scaleText(r.weightN, units)}</b> ({forceText(r.weightN, units)})
       </p>
+      {!r.standing ? (
+        <p className="danger" role="alert" data-testid="pose-not-standing" data-status={r.status}>
+          Goes over: this pose does not stand ({statusWords(r.status).toLowerCase()}: {r.reason})
+          {r.margins.weakestEdgeWheels.length > 0 ? `; it tips over the ${r.margins.weakestEdgeWheels.join('–')} edge` : ''}. No
+          loads, travel or margins are shown: they would belong to no balance. The vehicle is drawn as a red ghost; the
+          tilt table panel gives the tilt at which it tips.
+        </p>
+      ) : null}
       <table className="loads">
         <thead>
           <tr>
@@ -59,16 +67,20 @@ export function LoadsPanel() {
         <tfoot>
           <tr>
             <th scope="row">Sum</th>
-            <td data-testid="load-sum">{scaleText(sum, units)}</td>
+            <td data-testid="load-sum">{r.standing ? scaleText(sum, units) : '—'}</td>
             <td colSpan={3} />
           </tr>
         </tfoot>
       </table>
       <p className="status" data-testid="solve-status">
         {statusWords(r.status)}
-        {' · '}force-angle margin {angleText(r.margins.forceAngleRad)}
-        {' · '}plumb point {shortText(r.margins.staticM, units)} inside the support
-        {' · '}body roll {angleText(r.body.rollToLevelRad)} and pitch {angleText(r.body.pitchToLevelRad)} from level
+        {r.standing ? (
+          <>
+            {' · '}force-angle margin {angleText(r.margins.forceAngleRad)}
+            {' · '}plumb point {shortText(r.margins.staticM, units)} inside the support
+            {' · '}body roll {angleText(r.body.rollToLevelRad)} and pitch {angleText(r.body.pitchToLevelRad)} from level
+          </>
+        ) : null}
       </p>
       <ul className="warnings" data-testid="warnings" aria-live="polite">
         {warnings.length === 0 ? <li className="note">No lift or tip warnings at this pose.</li> : null}
