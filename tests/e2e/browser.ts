@@ -30,3 +30,17 @@ export function isHarmless(text: string): boolean {
 export async function waitForScene(page: Page): Promise<void> {
   await page.waitForFunction(() => (window as unknown as { __plumbline?: { scene: { stats: { firstFrameMs: number | null } } | null } }).__plumbline?.scene?.stats.firstFrameMs != null, undefined, { timeout: 30_000 });
 }
+
+/**
+ * A page in a fresh context (no service worker from an earlier test) that collects uncaught page
+ * errors and console errors, the harmless ones aside, into `errors`.
+ */
+export async function watchedPage(browser: Browser, errors: string[], viewport = { width: 1280, height: 800 }): Promise<Page> {
+  const context = await browser.newContext({ viewport, serviceWorkers: 'block' });
+  const page = await context.newPage();
+  page.on('pageerror', (e) => errors.push(e.message));
+  page.on('console', (m) => {
+    if (m.type() === 'error' && !isHarmless(m.text())) errors.push(m.text());
+  });
+  return page;
+}

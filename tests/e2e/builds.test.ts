@@ -9,7 +9,7 @@ import { afterAll, beforeAll, expect, inject, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import demo from '../../assets/scenarios/side-hill-stock.json';
 import { compareBuilds, parseScenario, type MetricName, type Scenario } from '../../src/core';
-import { isHarmless, launchChromium, waitForScene } from './browser';
+import { launchChromium, waitForScene, watchedPage } from './browser';
 
 const ARTIFACTS = resolve(import.meta.dirname, '../../test-artifacts');
 const RAD_PER_DEG = Math.PI / 180;
@@ -33,12 +33,7 @@ const errors: string[] = [];
 beforeAll(async () => {
   browser = await launchChromium();
   mkdirSync(ARTIFACTS, { recursive: true });
-  const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, serviceWorkers: 'block' });
-  page = await context.newPage();
-  page.on('pageerror', (e) => errors.push(e.message));
-  page.on('console', (m) => {
-    if (m.type() === 'error' && !isHarmless(m.text())) errors.push(m.text());
-  });
+  page = await watchedPage(browser, errors);
   await page.goto(inject('baseUrl'));
   await waitForScene(page);
 });

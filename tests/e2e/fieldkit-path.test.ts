@@ -9,7 +9,7 @@ import type { Browser, Page } from 'playwright-core';
 import ledge from '../../assets/scenarios/ledge-crawler.json';
 import { buildModel, candidateSpecs, parseScenario, passOptionsOf, rankCandidates, runLineSweepJob, runPass, type PathSpec, type Scenario } from '../../src/core';
 import { lineToPath } from '../../src/view/PathDrawState';
-import { isHarmless, launchChromium, waitForScene } from './browser';
+import { launchChromium, waitForScene, watchedPage } from './browser';
 
 const LEDGE_FILE = resolve(import.meta.dirname, '../../assets/scenarios/ledge-crawler.json');
 let browser: Browser;
@@ -24,12 +24,7 @@ function scenarioOf(data: unknown): Scenario {
 
 beforeAll(async () => {
   browser = await launchChromium();
-  const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, serviceWorkers: 'block' });
-  page = await context.newPage();
-  page.on('pageerror', (e) => errors.push(e.message));
-  page.on('console', (m) => {
-    if (m.type() === 'error' && !isHarmless(m.text())) errors.push(m.text());
-  });
+  page = await watchedPage(browser, errors);
   await page.goto(inject('baseUrl'));
   await waitForScene(page);
   await page.getByTestId('scenario-import').setInputFiles(LEDGE_FILE);

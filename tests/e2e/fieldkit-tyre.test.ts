@@ -5,7 +5,7 @@
  */
 import { afterAll, beforeAll, expect, inject, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { isHarmless, launchChromium, waitForScene } from './browser';
+import { launchChromium, waitForScene, watchedPage } from './browser';
 
 let browser: Browser;
 let page: Page;
@@ -15,12 +15,7 @@ type Win = { __plumbline: { store: { getState(): { scenario: { vehicle: { tyreFr
 
 beforeAll(async () => {
   browser = await launchChromium();
-  const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, serviceWorkers: 'block' });
-  page = await context.newPage();
-  page.on('pageerror', (e) => errors.push(e.message));
-  page.on('console', (m) => {
-    if (m.type() === 'error' && !isHarmless(m.text())) errors.push(m.text());
-  });
+  page = await watchedPage(browser, errors);
   await page.goto(inject('baseUrl'));
   await waitForScene(page);
 });

@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import demo from '../../assets/scenarios/side-hill-stock.json';
 import { buildModel, parseScenario, solveEquilibrium } from '../../src/core';
-import { isHarmless, launchChromium, waitForScene } from './browser';
+import { launchChromium, waitForScene, watchedPage } from './browser';
 
 const WHEELS = ['FL', 'FR', 'RL', 'RR'] as const;
 const pastTip = { ...demo, tilt: { ...demo.tilt, angle: 60 } };
@@ -19,12 +19,7 @@ const errors: string[] = [];
 
 beforeAll(async () => {
   browser = await launchChromium();
-  const context = await browser.newContext({ viewport: { width: 1280, height: 720 }, serviceWorkers: 'block' });
-  page = await context.newPage();
-  page.on('pageerror', (e) => errors.push(e.message));
-  page.on('console', (m) => {
-    if (m.type() === 'error' && !isHarmless(m.text())) errors.push(m.text());
-  });
+  page = await watchedPage(browser, errors, { width: 1280, height: 720 });
 });
 afterAll(async () => {
   await browser?.close();
