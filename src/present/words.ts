@@ -7,6 +7,7 @@
 import type { SolveResult, SolveStatus } from '../core/model/types';
 import { passOutcome, type PassEvent, type PassResult } from '../core/analysis/pass';
 import type { BuildChange } from '../core/analysis/builds';
+import { SPARE_DATUM, type SlopeToSpare, type SpareDirection } from '../core/analysis/spare';
 import { DEG_PER_RAD, RAD_PER_DEG, angleText, changeText, distanceText, fixed, lengthText, massText, percentText, quantityText, shortText, toDisplay, type UnitSystem } from './units';
 
 /** Slope printed as the maximum in operator manuals of ride-on mowers, utility vehicles and ATVs
@@ -232,4 +233,31 @@ export function buildChangeWords(c: BuildChange, units: UnitSystem): string {
 /** All of a build's modifications in words, joined. */
 export function buildChangesWords(changes: readonly BuildChange[], units: UnitSystem, sep = '; '): string {
   return changes.map((c) => buildChangeWords(c, units)).join(sep);
+}
+
+/**
+ * Slope to spare in words, the headline margin: the extra tilt beyond the ground here to the first
+ * wheel lift and to the tip, in the weakest direction and the four cardinal ones, each with the
+ * slope from level where it happens. (The force-angle, energy and static margins are details: they
+ * are not slopes to spare.)
+ */
+export function spareLines(sp: SlopeToSpare): string[] {
+  const a = (rad: number | null) => (rad === null ? `more than ${angleText(sp.maxBeyondGroundRad)}` : angleText(rad));
+  const one = (d: SpareDirection) => {
+    const lift = d.toLiftBeyondGroundRad === null ? `no lift up to ${a(null)}` : `a wheel${d.liftWheel ? ` (${d.liftWheel})` : ''} lifts after ${a(d.toLiftBeyondGroundRad)} more`;
+    const tip = d.toTipBeyondGroundRad === null ? `no tip up to ${a(null)} more` : `it tips after ${a(d.toTipBeyondGroundRad)} more (a slope of ${a(d.tipFromLevelRad)} from level)`;
+    const soft = d.softFromBeyondGroundRad !== null ? `; nearly neutral from ${a(d.softFromBeyondGroundRad)} more: take that as the limit` : '';
+    return `${lift}, ${tip}${soft}`;
+  };
+  const dir = (d: SpareDirection) => downhillWords(d.downhillRad);
+  const out = [
+    `Slope to spare, ${SPARE_DATUM} (the ground is ${angleText(sp.groundFromLevelRad)} from level):`,
+    `weakest direction ${dir(sp.weakestTip)}: ${one(sp.weakestTip)}`,
+  ];
+  for (const name of Object.keys(sp.cardinals) as (keyof SlopeToSpare['cardinals'])[]) {
+    const d = sp.cardinals[name];
+    out.push(`${downhillWords(d.downhillRad)}: ${one(d)}`);
+  }
+  if (!sp.standsNow) out.push('It does not stand as it is: there is no slope to spare.');
+  return out;
 }

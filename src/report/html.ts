@@ -9,6 +9,8 @@
 import { WHEEL_NAMES, type TerrainFeature } from '../core/model/types';
 import type { BuildRow } from '../core/analysis/builds';
 import { liftAngleOf, tipAngleOf } from '../core/analysis/rose';
+import { spareFromRose } from '../core/analysis/spare';
+import { spareLines } from '../present/words';
 import {
   BUILD_METRICS,
   COMMON_PRACTICE_MAX_SLOPE_DEG,
@@ -375,6 +377,7 @@ function roseSection(d: ReportData): string {
   return (
     '<section id="rose"><h2>Stability rose</h2>' +
     `<p>A tilt-table sweep for each downhill direction every ${directionText(step)}, the vehicle on a level tilt table (as the rose command by default: a property of the build, not of the site). The radius is the table's tilt from level: solid, the angle of no equilibrium (tip); dashed, the first wheel lift. The dashed black ring is the ${COMMON_PRACTICE_MAX_SLOPE_DEG}° operating line of common practice. A direction with no tip up to 89° is drawn at the outer ring.</p>` +
+    `<ul class="spare" id="slope-to-spare">${spareLines(spareFromRose(r)).map((l) => `<li>${esc(l)}</li>`).join('')}</ul>` +
     `<figure>${chart}<figcaption>Weakest: tips at ${r.weakest.tip ? deg(r.weakest.tip.angleRad) : 'no tip up to 89°'} from level with downhill ${directionText(r.weakest.downhillRad)}; earliest lift ${r.weakestLift.firstLift ? `${r.weakestLift.firstLift.wheel} at ${deg(r.weakestLift.firstLift.angleRad)} from level with downhill ${directionText(r.weakestLift.downhillRad)}` : 'none before the tip'}.</figcaption></figure>` +
     '</section>'
   );

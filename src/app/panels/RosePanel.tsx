@@ -1,8 +1,8 @@
 import { useState } from 'react';
-import type { RoseResult } from '../../core';
+import { spareFromRose, type RoseResult } from '../../core';
 import { runRose } from '../../worker/client';
 import { angleText, radToDeg } from '../../present/units';
-import { downhillWords } from '../../present/words';
+import { downhillWords, spareLines } from '../../present/words';
 import { MARGIN_COLOUR, WHEEL_COLOURS } from '../../present/palette';
 import { useWorkerJob } from './useWorkerJob';
 import { usePlumb, usePlumbStore } from '../../store/react';
@@ -103,6 +103,11 @@ export function RosePanel() {
                 : 'none before the tip'}
               .
             </p>
+            <ul className="spare" data-testid="rose-spare">
+              {spareLines(spareFromRose(done.result)).map((line, i) => (
+                <li key={i}>{line}</li>
+              ))}
+            </ul>
             <p className="fineprint">
               Solid line: tip; dashed: first lift. {done.result.directions.length} directions in {done.wallMs.toFixed(0)} ms. Static limits
               only: keep far inside them.

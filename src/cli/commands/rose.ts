@@ -1,7 +1,7 @@
 /** `plumbline rose FILE`: tilt-table lift and tip angles for downhill directions all round the vehicle. */
-import { buildModel, stabilityRose, type RoseDirection, type RoseResult } from '../../core/index';
+import { buildModel, spareFromRose, stabilityRose, type RoseDirection, type RoseResult } from '../../core/index';
 import { RAD_PER_DEG, directionText } from '../../present/units';
-import { QUASI_STATIC_CAUTION, downhillWords } from '../../present/words';
+import { QUASI_STATIC_CAUTION, downhillWords, spareLines } from '../../present/words';
 import { EXIT_BAD_INPUT, EXIT_OK, type CommandSpec } from '../command';
 import { formatKeyValues, formatTable } from '../format';
 import { loadScenarioFile, toJsonText } from '../load';
@@ -104,6 +104,8 @@ export const roseCommand: CommandSpec = {
           ],
         ]),
       );
+      io.out('');
+      for (const line of spareLines(spareFromRose(r))) io.out(line);
       io.out('');
       io.out(
         formatTable(
