@@ -33,3 +33,16 @@ export function reason(e: unknown, fallback: string): string {
   const m = e instanceof Error ? e.message : typeof e === 'string' ? e : '';
   return m && m !== 'undefined' ? m : fallback;
 }
+
+/**
+ * `a` with room for one more triple after the `n` in use: the same array while there is room, else
+ * one of twice the size holding the same values (the new count checked against the import's limit).
+ */
+export function roomForTriple<T extends Float64Array | Uint32Array>(file: string, what: string, a: T, n: number): T {
+  if (3 * (n + 1) <= a.length) return a;
+  const cap = (a.length / 3) * 2;
+  checkCount(file, what, cap);
+  const b = new (a.constructor as new (length: number) => T)(cap * 3);
+  b.set(a);
+  return b;
+}

@@ -4,15 +4,13 @@
  * `v/vt/vn` forms and negative (relative) indices accepted; everything else ignored.
  */
 import type { RawGround } from '../core/ground/pipeline';
-import { checkCount, fail, textOf } from './bytes';
+import { fail, roomForTriple, textOf } from './bytes';
 
 export function readObj(bytes: Uint8Array, file: string): RawGround {
   const text = textOf(bytes);
-  let vcap = 1024;
-  let v = new Float64Array(vcap * 3);
+  let v = new Float64Array(1024 * 3);
   let nv = 0;
-  let icap = 1024;
-  let idx = new Uint32Array(icap * 3);
+  let idx = new Uint32Array(1024 * 3);
   let nt = 0;
   let line = 0;
   let start = 0;
@@ -29,13 +27,7 @@ export function readObj(bytes: Uint8Array, file: string): RawGround {
       const y = Number(p[2]);
       const z = Number(p[3]);
       if (!Number.isFinite(x) || !Number.isFinite(y) || !Number.isFinite(z)) fail(file, `line ${line}: a vertex needs three finite numbers, got "${s.slice(0, 60)}"`);
-      if (nv === vcap) {
-        vcap *= 2;
-        checkCount(file, 'vertex', vcap);
-        const b = new Float64Array(vcap * 3);
-        b.set(v);
-        v = b;
-      }
+      v = roomForTriple(file, 'vertex', v, nv);
       v[3 * nv] = x;
       v[3 * nv + 1] = y;
       v[3 * nv + 2] = z;
@@ -52,13 +44,7 @@ export function readObj(bytes: Uint8Array, file: string): RawGround {
       }
       if (face.length < 3) fail(file, `line ${line}: a face needs at least 3 vertices`);
       for (let q = 1; q + 1 < face.length; q++) {
-        if (nt === icap) {
-          icap *= 2;
-          checkCount(file, 'triangle', icap);
-          const b = new Uint32Array(icap * 3);
-          b.set(idx);
-          idx = b;
-        }
+        idx = roomForTriple(file, 'triangle', idx, nt);
         idx[3 * nt] = face[0];
         idx[3 * nt + 1] = face[q];
         idx[3 * nt + 2] = face[q + 1];

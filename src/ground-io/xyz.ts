@@ -3,12 +3,11 @@
  * separated); a first line that is not numbers is a header; lines starting with # are comments.
  */
 import type { RawGround } from '../core/ground/pipeline';
-import { checkCount, fail, textOf } from './bytes';
+import { fail, roomForTriple, textOf } from './bytes';
 
 export function readXyz(bytes: Uint8Array, file: string): RawGround {
   const text = textOf(bytes);
-  let cap = 1024;
-  let xyz = new Float64Array(cap * 3);
+  let xyz = new Float64Array(1024 * 3);
   let n = 0;
   let line = 0;
   let start = 0;
@@ -28,13 +27,7 @@ export function readXyz(bytes: Uint8Array, file: string): RawGround {
       if (n === 0 && line === 1 && [x, y, z].some((v) => Number.isNaN(v))) continue; // a header line
       fail(file, `line ${line}: x, y and z must be finite numbers, got "${s.slice(0, 60)}"`);
     }
-    if (n === cap) {
-      cap *= 2;
-      checkCount(file, 'point', cap);
-      const b = new Float64Array(cap * 3);
-      b.set(xyz);
-      xyz = b;
-    }
+    xyz = roomForTriple(file, 'point', xyz, n);
     xyz[3 * n] = x;
     xyz[3 * n + 1] = y;
     xyz[3 * n + 2] = z;
