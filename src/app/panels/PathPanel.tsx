@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { candidateSpecs, lineToPathOrNull, rankCandidates, type LineSpec, type LineSummary, type PathSpec, type RankedCandidate, type Scenario } from './pathPanelDeps';
 import { runLineSpecs, type LineSweepReply } from '../../worker/client';
-import { DEG_PER_RAD, distanceText, toDisplay } from '../../present/units';
+import { angleText, distanceText, toDisplay } from '../../present/units';
 import { setIn, validate } from '../edit';
 import { useWorkerJob } from './useWorkerJob';
 import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../../store/react';
@@ -67,7 +67,7 @@ export function PathPanel() {
     const parts: string[] = [];
     if (l.tip) parts.push(`tips at ${distanceText(l.tip.distanceM, units)}`);
     else if (l.hangUp) parts.push(`hangs up on the ${l.hangUp.part === 'front' ? 'front bumper' : l.hangUp.part === 'rear' ? 'rear bumper' : l.hangUp.part.replace('-', ' ')} at ${distanceText(l.hangUp.distanceM, units)}`);
-    else parts.push(`smallest margin ${(l.minForceAngleRad * DEG_PER_RAD).toFixed(1)}° at ${distanceText(l.minMarginDistanceM, units)}`);
+    else parts.push(`smallest force-angle margin ${angleText(l.minForceAngleRad)} at ${distanceText(l.minMarginDistanceM, units)}`);
     parts.push(l.firstUnload ? `${l.firstUnload.wheel} unloads first at ${distanceText(l.firstUnload.distanceM, units)}` : 'no wheel goes light');
     if (l.firstLift) parts.push(`${l.firstLift.wheel} lifts at ${distanceText(l.firstLift.distanceM, units)}`);
     return parts.join('; ');
