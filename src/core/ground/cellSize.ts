@@ -6,6 +6,8 @@
  * 2·√(2Rδ − δ²) (circle geometry).
  */
 
+import { boundsOf } from './localFrame';
+
 export interface CellChoice {
   readonly cellM: number;
   readonly patchLengthM: number;
@@ -30,15 +32,7 @@ export function pointSpacingM(areaM2: number, count: number): number {
  * unscanned corners do not make the data look denser than it is.
  */
 export function coveredSpacingM(xyz: Float32Array, count: number): number {
-  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
-  for (let i = 0; i < count; i++) {
-    const x = xyz[3 * i];
-    const y = xyz[3 * i + 1];
-    if (x < x0) x0 = x;
-    if (x > x1) x1 = x;
-    if (y < y0) y0 = y;
-    if (y > y1) y1 = y;
-  }
+  const [x0, y0, , x1, y1] = boundsOf(xyz, count);
   const area = Math.max((x1 - x0) * (y1 - y0), 1e-12);
   const probe = 4 * pointSpacingM(area, count);
   const cols = Math.floor((x1 - x0) / probe) + 1;

@@ -1,3 +1,5 @@
+import { boundsOf } from './localFrame';
+
 /**
  * A flat 2D bucket index over points (x, y), for k-nearest-neighbour queries in 3D distance.
  * Horizontal distance never exceeds the 3D distance, so a ring search can stop once the ring's
@@ -18,18 +20,7 @@ export class BucketIndex {
     readonly count: number,
     pointsPerBucket: number,
   ) {
-    let x0 = Infinity;
-    let y0 = Infinity;
-    let x1 = -Infinity;
-    let y1 = -Infinity;
-    for (let i = 0; i < count; i++) {
-      const x = xyz[3 * i];
-      const y = xyz[3 * i + 1];
-      if (x < x0) x0 = x;
-      if (x > x1) x1 = x;
-      if (y < y0) y0 = y;
-      if (y > y1) y1 = y;
-    }
+    const [x0, y0, , x1, y1] = boundsOf(xyz, count);
     const area = Math.max((x1 - x0) * (y1 - y0), 1e-12);
     let cell = Math.sqrt((area * pointsPerBucket) / Math.max(count, 1));
     if (!(cell > 0)) cell = 1;
