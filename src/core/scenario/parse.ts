@@ -370,7 +370,7 @@ export function crossChecks(data: unknown, units: UnitSystem, errors: ScenarioEr
       }
       const prev = out[out.length - 1];
       if (ok && prev && prev[0] === x && prev[1] === y) {
-        push(`${p}[${i}]`, `must differ from ${p}[${i - 1}] (a leg of length 0), got ${describeValue({ x, y })}`);
+        push(`${p}[${i}]`, `must differ from ${p}[${i - 1}] (a leg of length 0), got x ${x}, y ${y}`);
         ok = false;
       }
       out.push([x, y]);
