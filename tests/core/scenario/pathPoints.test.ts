@@ -36,10 +36,7 @@ describe('path points in the scenario file', () => {
     const f = baseFile();
     f.path = { points: pts([0, 0], [4, 1], [4, 6], [9, 6]), step: 0.05 };
     expect(ok(f).path).toEqual({ fromM: [0, 0], viaM: [[4, 1], [4, 6]], toM: [9, 6], stepM: 0.05, headingRad: null });
-    const g = baseFile();
-    g.units = 'imperial';
-    // The base file is metric; only the path is checked here, so its other numbers stay as they are
-    // where they read in range as inches, pounds … (a small vehicle) — read the path alone.
+    // The base file written in inches, then an imperial path put in: 100 in = 2.54 m exactly.
     const imperial = scenarioToFile(ok(baseFile()), 'imperial');
     imperial.path = { points: pts([0, 0], [100, 50], [200, 50]), step: 2 };
     const p = ok(imperial).path!;
