@@ -1,7 +1,7 @@
 import { useEffect, useMemo } from 'react';
 import { useFrame, useThree } from '@react-three/fiber';
 import * as THREE from 'three';
-import { TerrainField } from '../core';
+import { TerrainField, snapToFileUnit, type UnitSystem } from '../core';
 import { usePlumb } from '../store/react';
 import { pathDrawHandles, pathDrawStore, rayGroundHit, usePathDraw, type DrawnLine, type XY } from './PathDrawState';
 
@@ -23,28 +23,50 @@ export function drawnLineColour(i: number): string {
   return COLOURS[i % COLOURS.length];
 }
 
-function drape(field: TerrainField, l: DrawnLine, samples: number): Float32Array {
-  const to = l.to ?? l.from;
-  const out = new Float32Array(3 * (samples + 1));
-  for (let i = 0; i <= samples; i++) {
-    const f = i / samples;
-    const x = l.from[0] + f * (to[0] - l.from[0]);
-    const y = l.from[1] + f * (to[1] - l.from[1]);
-    out[3 * i] = x;
-    out[3 * i + 1] = y;
-    out[3 * i + 2] = field.height(x, y) + LIFT_M;
+/** A point on the ground kept to the scenario file's resolution (0.1 mm or 0.01 in), so the app holds what the file will say. */
+export function snapXY(p: XY, units: UnitSystem): XY {
+  return [snapToFileUnit('length', p[0], units), snapToFileUnit('length', p[1], units)];
+}
+
+/** The polyline draped on the ground: each leg sampled every ~5 cm (at least 8 samples a leg, at most 400). */
+function drape(field: TerrainField, l: DrawnLine): Float32Array {
+  const pts = l.points.length === 1 ? [l.points[0], l.points[0]] : l.points;
+  const counts: number[] = [];
+  let total = 1;
+  for (let k = 1; k < pts.length; k++) {
+    const n = Math.min(400, Math.max(8, Math.ceil(Math.hypot(pts[k][0] - pts[k - 1][0], pts[k][1] - pts[k - 1][1]) / 0.05)));
+    counts.push(n);
+    total += n;
+  }
+  const out = new Float32Array(3 * total);
+  let j = 0;
+  const put = (x: number, y: number) => {
+    out[j++] = x;
+    out[j++] = y;
+    out[j++] = field.height(x, y) + LIFT_M;
+  };
+  put(pts[0][0], pts[0][1]);
+  for (let k = 1; k < pts.length; k++) {
+    const a = pts[k - 1];
+    const b = pts[k];
+    for (let i = 1; i <= counts[k - 1]; i++) {
+      const f = i / counts[k - 1];
+      put(a[0] + f * (b[0] - a[0]), a[1] + f * (b[1] - a[1]));
+    }
   }
   return out;
 }
 
 /**
- * Drawing candidate lines on the ground: while drawing is on, a left press on the ground places a
- * point (two make a line) or, dragged, a whole line; the view does not orbit on it. The lines are
- * draped on the terrain; their end markers are DOM elements (PathDrawMarkers) placed here each frame
- * and dragged to edit. Lives inside the tilt-table group (terrain frame).
+ * Drawing candidate lines on the ground: while drawing is on, a left press on the ground adds a
+ * point to the line being drawn (or starts one) or, dragged, draws a whole two-point line; the view
+ * does not orbit on it. The lines are draped on the terrain; their point markers are DOM elements
+ * (PathDrawMarkers) placed here each frame and dragged to edit. Lives inside the tilt-table group
+ * (terrain frame).
  */
 export function PathDraw() {
   const terrain = usePlumb((s) => s.scenario.terrain);
+  const units = usePlumb((s) => s.scenario.units);
   const lines = usePathDraw((s) => s.lines);
   const gl = useThree((s) => s.gl);
   const camera = useThree((s) => s.camera);
@@ -68,7 +90,7 @@ export function PathDraw() {
       _o.copy(_ray.ray.origin).applyMatrix4(_inv);
       _d.copy(_ray.ray.direction).transformDirection(_inv);
       const hit = rayGroundHit((x, y) => field.height(x, y), [_o.x, _o.y, _o.z], [_d.x, _d.y, _d.z]);
-      return hit ? [hit[0], hit[1]] : null;
+      return hit ? snapXY([hit[0], hit[1]], units) : null;
     };
     pathDrawHandles.hitAt = hitAt;
     pathDrawHandles.invalidate = invalidate;
@@ -102,13 +124,13 @@ export function PathDraw() {
       window.removeEventListener('pointerup', onUp);
       unsub();
     };
-  }, [gl, camera, scene, invalidate, field]);
+  }, [gl, camera, scene, invalidate, field, units]);
 
   const objects = useMemo(
     () =>
       lines.map((l, i) => {
         const g = new THREE.BufferGeometry();
-        g.setAttribute('position', new THREE.BufferAttribute(drape(field, l, 120), 3));
+        g.setAttribute('position', new THREE.BufferAttribute(drape(field, l), 3));
         return new THREE.Line(g, new THREE.LineBasicMaterial({ color: drawnLineColour(i), linewidth: 2 }));
       }),
     [lines, field],
@@ -123,14 +145,13 @@ export function PathDraw() {
     [objects],
   );
 
-  // Place the DOM markers over the line ends on every drawn frame.
+  // Place the DOM markers over the line points on every drawn frame.
   useFrame(({ size }) => {
     const t = scene.getObjectByName('tilt-table');
     const ls = pathDrawStore.getState().lines;
     for (const [key, el] of pathDrawHandles.markers) {
-      const [li, end] = key.split(':');
-      const l = ls[Number(li)];
-      const p = l ? (end === 'from' ? l.from : l.to) : null;
+      const [li, k] = key.split(':');
+      const p = ls[Number(li)]?.points[Number(k)];
       if (!p) {
         el.style.visibility = 'hidden';
         continue;

@@ -1,56 +1,112 @@
 /**
- * Candidate lines drawn on the ground in the 3D view: each a start and an end (the scenario's path
- * is a straight line from → to), shared by the scene (drawing, markers) and the path panel. One
- * store per page; plain data, no three.js. The pure ray–terrain intersection used for the clicks
- * is here too, so it can be tested without a browser.
+ * Candidate lines drawn on the ground in the 3D view: each a named polyline (clicked points in
+ * driving order), shared by the scene (drawing, markers) and the path panel, and kept in the
+ * scenario as its saved candidate lines (`candidates`; the panel writes them there). One store per
+ * page; plain data, no three.js. The pure ray–terrain intersection used for the clicks is here too,
+ * so it can be tested without a browser.
  */
 import { createStore } from 'zustand/vanilla';
 import { useStore } from 'zustand';
-import type { PathSpec } from '../core';
+import { SCENARIO_LIMITS, polylinePath, type CandidateLine, type PathSpec } from '../core';
 
 export type XY = readonly [number, number];
 
 export interface DrawnLine {
-  readonly from: XY;
-  /** Null while only the start has been placed. */
-  readonly to: XY | null;
+  readonly name: string;
+  /** Points in driving order; a line with fewer than two is still being drawn. */
+  readonly points: readonly XY[];
 }
 
 export interface PathDrawState {
   /** Clicks on the ground place points (the view does not orbit on a left press while this is on). */
   readonly drawing: boolean;
   readonly lines: readonly DrawnLine[];
+  /** The line clicks add to; null: the next click starts a new line. */
+  readonly active: number | null;
+  /** A point marker is being dragged (the scenario is written when it is let go). */
+  readonly dragging: boolean;
   setDrawing(on: boolean): void;
-  /** A click: ends the open line, or starts a new one. */
+  /** A click: adds a point to the line being drawn, or starts a new one. */
   addPoint(p: XY): void;
-  /** A press dragged from a to b: a whole new line (when no line is open). */
+  /** A press dragged from a to b: a whole new two-point line (the line being drawn is finished). */
   addLine(a: XY, b: XY): void;
-  movePoint(line: number, end: 'from' | 'to', p: XY): void;
+  movePoint(line: number, point: number, p: XY): void;
+  removePoint(line: number, point: number): void;
+  /** The line being drawn is done: the next click starts a new line. */
+  finishLine(): void;
+  /** Clicks add to this line again (at its end). */
+  continueLine(line: number): void;
+  rename(line: number, name: string): void;
   removeLine(line: number): void;
+  setDragging(on: boolean): void;
+  /** Replace every line (from the scenario's saved lines); none is being drawn then. */
   setLines(lines: readonly DrawnLine[]): void;
 }
 
+/** "Line n" with the smallest n not yet used. */
+export function freeLineName(lines: readonly DrawnLine[]): string {
+  const used = new Set(lines.map((l) => l.name));
+  let n = lines.length + 1;
+  for (let k = 1; k <= lines.length + 1; k++) {
+    if (!used.has(`Line ${k}`)) {
+      n = k;
+      break;
+    }
+  }
+  return `Line ${n}`;
+}
+
 export function createPathDrawStore() {
+  const replaceLine = (lines: readonly DrawnLine[], i: number, l: DrawnLine) => lines.map((x, k) => (k === i ? l : x));
   return createStore<PathDrawState>((set, get) => ({
     drawing: false,
     lines: [],
-    setDrawing: (on) => set({ drawing: on }),
+    active: null,
+    dragging: false,
+    setDrawing: (on) => set(on ? { drawing: true } : { drawing: false, active: null }),
     addPoint: (p) => {
-      const lines = get().lines;
-      const last = lines[lines.length - 1];
-      if (last && last.to === null) set({ lines: [...lines.slice(0, -1), { from: last.from, to: p }] });
-      else set({ lines: [...lines, { from: p, to: null }] });
+      const { lines, active } = get();
+      const l = active === null ? undefined : lines[active];
+      if (l) {
+        const last = l.points[l.points.length - 1];
+        // A second click on the same spot adds no leg of length 0; a full line takes no more points.
+        if ((last && last[0] === p[0] && last[1] === p[1]) || l.points.length >= SCENARIO_LIMITS.pathPoints) return;
+        set({ lines: replaceLine(lines, active!, { name: l.name, points: [...l.points, p] }) });
+      } else if (lines.length < SCENARIO_LIMITS.candidates) {
+        set({ lines: [...lines, { name: freeLineName(lines), points: [p] }], active: lines.length });
+      }
     },
     addLine: (a, b) => {
       const lines = get().lines;
-      const last = lines[lines.length - 1];
-      if (last && last.to === null) set({ lines: [...lines.slice(0, -1), { from: last.from, to: b }] });
-      else set({ lines: [...lines, { from: a, to: b }] });
+      if (lines.length >= SCENARIO_LIMITS.candidates) return;
+      set({ lines: [...lines, { name: freeLineName(lines), points: [a, b] }], active: null });
     },
-    movePoint: (line, end, p) =>
-      set({ lines: get().lines.map((l, i) => (i !== line ? l : end === 'from' ? { from: p, to: l.to } : { from: l.from, to: p })) }),
-    removeLine: (line) => set({ lines: get().lines.filter((_, i) => i !== line) }),
-    setLines: (lines) => set({ lines }),
+    movePoint: (line, point, p) => {
+      const l = get().lines[line];
+      if (!l || point < 0 || point >= l.points.length) return;
+      set({ lines: replaceLine(get().lines, line, { name: l.name, points: l.points.map((q, k) => (k === point ? p : q)) }) });
+    },
+    removePoint: (line, point) => {
+      const { lines, active } = get();
+      const l = lines[line];
+      if (!l) return;
+      const points = l.points.filter((_, k) => k !== point);
+      if (points.length === 0) {
+        set({ lines: lines.filter((_, k) => k !== line), active: active === null || active === line ? null : active > line ? active - 1 : active });
+      } else set({ lines: replaceLine(lines, line, { name: l.name, points }) });
+    },
+    finishLine: () => set({ active: null }),
+    continueLine: (line) => set(get().lines[line] ? { active: line, drawing: true } : {}),
+    rename: (line, name) => {
+      const l = get().lines[line];
+      if (l) set({ lines: replaceLine(get().lines, line, { name, points: l.points }) });
+    },
+    removeLine: (line) => {
+      const { lines, active } = get();
+      set({ lines: lines.filter((_, i) => i !== line), active: active === null || active === line ? null : active > line ? active - 1 : active });
+    },
+    setDragging: (on) => set({ dragging: on }),
+    setLines: (lines) => set({ lines, active: null }),
   }));
 }
 
@@ -68,7 +124,7 @@ export function usePathDraw<T>(selector: (s: PathDrawState) => T): T {
 export const pathDrawHandles: {
   /** Terrain-frame ground point under a client (page) position, or null (sky, or no scene). */
   hitAt: ((clientX: number, clientY: number) => XY | null) | null;
-  /** Marker elements by "line:end". */
+  /** Marker elements by "line:point". */
   readonly markers: Map<string, HTMLElement>;
   /** Ask the scene for one frame (markers are placed when a frame is drawn). */
   invalidate: () => void;
@@ -107,9 +163,40 @@ export function rayGroundHit(
   return null;
 }
 
-/** A drawn line as the scenario's path (from, to, step; heading along the line). */
+/** Whether a drawn line can be run: two or more points, each apart from the one before. */
+export function lineComplete(l: DrawnLine): boolean {
+  if (l.points.length < 2) return false;
+  for (let i = 1; i < l.points.length; i++) {
+    if (Math.hypot(l.points[i][0] - l.points[i - 1][0], l.points[i][1] - l.points[i - 1][1]) < 1e-6) return false;
+  }
+  return true;
+}
+
+/** A drawn line as a pass path (its points at the step; heading along each leg), or null while it cannot be run. */
 export function lineToPath(l: DrawnLine, stepM: number): PathSpec | null {
-  if (!l.to) return null;
-  if (Math.hypot(l.to[0] - l.from[0], l.to[1] - l.from[1]) < 1e-6) return null;
-  return { fromM: [l.from[0], l.from[1]], toM: [l.to[0], l.to[1]], stepM, headingRad: null };
+  return lineComplete(l) ? polylinePath(l.points, stepM) : null;
+}
+
+/** The lines that can be run, as the scenario's saved candidate lines. */
+export function linesToCandidates(lines: readonly DrawnLine[]): CandidateLine[] {
+  return lines.filter(lineComplete).map((l) => ({ name: l.name, pointsM: l.points }));
+}
+
+/** The scenario's saved lines as drawn lines. */
+export function candidatesToLines(c: readonly CandidateLine[] | undefined): DrawnLine[] {
+  return (c ?? []).map((l) => ({ name: l.name, points: l.pointsM }));
+}
+
+/** Same names and points, in the same order. */
+export function sameCandidates(a: readonly CandidateLine[] | undefined, b: readonly CandidateLine[] | undefined): boolean {
+  const x = a ?? [];
+  const y = b ?? [];
+  if (x.length !== y.length) return false;
+  for (let i = 0; i < x.length; i++) {
+    if (x[i].name !== y[i].name || x[i].pointsM.length !== y[i].pointsM.length) return false;
+    for (let k = 0; k < x[i].pointsM.length; k++) {
+      if (x[i].pointsM[k][0] !== y[i].pointsM[k][0] || x[i].pointsM[k][1] !== y[i].pointsM[k][1]) return false;
+    }
+  }
+  return true;
 }

@@ -1,6 +1,6 @@
 import { useEffect, useMemo } from 'react';
 import * as THREE from 'three';
-import { TerrainField, type PathSpec } from '../core';
+import { PathWalker, TerrainField, type PathSpec } from '../core';
 import { usePlumb } from '../store/react';
 
 export interface PathLineProps {
@@ -10,16 +10,15 @@ export interface PathLineProps {
   samples?: number;
 }
 
-/** Draws a path on the ground, following the terrain: from its start to its end. */
+/** Draws a path on the ground, following the terrain: from its start through its points to its end, `samples` in all, evenly along it. */
 function pathPositions(field: TerrainField, p: PathSpec, liftM: number, samples: number): Float32Array {
   const out = new Float32Array(3 * (samples + 1));
+  const w = new PathWalker(p, 0);
   for (let i = 0; i <= samples; i++) {
-    const f = i / samples;
-    const x = p.fromM[0] + f * (p.toM[0] - p.fromM[0]);
-    const y = p.fromM[1] + f * (p.toM[1] - p.fromM[1]);
-    out[3 * i] = x;
-    out[3 * i + 1] = y;
-    out[3 * i + 2] = field.height(x, y) + liftM;
+    w.at((i / samples) * w.lengthM);
+    out[3 * i] = w.xM;
+    out[3 * i + 1] = w.yM;
+    out[3 * i + 2] = field.height(w.xM, w.yM) + liftM;
   }
   return out;
 }

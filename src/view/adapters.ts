@@ -75,13 +75,17 @@ export interface TerrainExtent {
 }
 
 /** Area drawn: around the vehicle and its path, with margin. */
-export function terrainExtent(pose: Pose, path: { fromM: readonly [number, number]; toM: readonly [number, number] } | null, marginM = 7): TerrainExtent {
+export function terrainExtent(
+  pose: Pose,
+  path: { fromM: readonly [number, number]; viaM?: readonly (readonly [number, number])[]; toM: readonly [number, number] } | null,
+  marginM = 7,
+): TerrainExtent {
   let x0 = pose.xM;
   let x1 = pose.xM;
   let y0 = pose.yM;
   let y1 = pose.yM;
   if (path) {
-    for (const p of [path.fromM, path.toM]) {
+    for (const p of [path.fromM, ...(path.viaM ?? []), path.toM]) {
       x0 = Math.min(x0, p[0]);
       x1 = Math.max(x1, p[0]);
       y0 = Math.min(y0, p[1]);

@@ -8,7 +8,7 @@ import { describe, expect, it, vi } from 'vitest';
 
 vi.mock('react', () => ({}));
 
-import { createPathDrawStore, lineToPath, rayGroundHit } from '../../src/view/PathDrawState';
+import { candidatesToLines, createPathDrawStore, lineToPath, linesToCandidates, rayGroundHit, sameCandidates } from '../../src/view/PathDrawState';
 import { LINE_TIE_RESOLUTION_RAD, candidateSpecs, rankCandidates } from '../../src/core/analysis/pathCandidates';
 import { runLineSweepJob, type LineSummary } from '../../src/core/analysis/lines';
 import { runPass } from '../../src/core/analysis/pass';
@@ -43,29 +43,59 @@ describe('a click meets the ground', () => {
 });
 
 describe('the drawing store', () => {
-  it('two clicks make a line, a third starts the next; a drag makes a whole line; ends move', () => {
+  it('clicks add points to one line until it is finished; a drag makes a whole two-point line; points move and go', () => {
     const s = createPathDrawStore();
-    s.getState().addPoint([0, 0]);
-    expect(s.getState().lines).toEqual([{ from: [0, 0], to: null }]);
-    s.getState().addPoint([4, 1]);
-    s.getState().addPoint([0, 2]);
-    expect(s.getState().lines).toEqual([{ from: [0, 0], to: [4, 1] }, { from: [0, 2], to: null }]);
-    // A drag while a line is open ends the open line at the drag's end.
-    s.getState().addLine([9, 9], [5, 3]);
-    expect(s.getState().lines[1]).toEqual({ from: [0, 2], to: [5, 3] });
-    s.getState().addLine([1, 1], [2, 2]);
-    expect(s.getState().lines).toHaveLength(3);
-    s.getState().movePoint(0, 'to', [6, 0]);
-    expect(s.getState().lines[0]).toEqual({ from: [0, 0], to: [6, 0] });
-    s.getState().removeLine(1);
-    expect(s.getState().lines.map((l) => l.from)).toEqual([[0, 0], [1, 1]]);
+    const st = () => s.getState();
+    st().addPoint([0, 0]);
+    expect(st().lines).toEqual([{ name: 'Line 1', points: [[0, 0]] }]);
+    expect(st().active).toBe(0);
+    st().addPoint([4, 1]);
+    st().addPoint([4, 1]); // the same spot again: no leg of length 0
+    st().addPoint([8, 1]);
+    expect(st().lines[0].points).toEqual([[0, 0], [4, 1], [8, 1]]);
+    st().finishLine();
+    st().addPoint([0, 2]);
+    expect(st().lines.map((l) => l.name)).toEqual(['Line 1', 'Line 2']);
+    expect(st().active).toBe(1);
+    // A drag draws a new two-point line and finishes the open one.
+    st().addLine([1, 1], [2, 2]);
+    expect(st().lines[2]).toEqual({ name: 'Line 3', points: [[1, 1], [2, 2]] });
+    expect(st().active).toBeNull();
+    st().movePoint(0, 1, [4, 1.5]);
+    expect(st().lines[0].points).toEqual([[0, 0], [4, 1.5], [8, 1]]);
+    st().removePoint(0, 1);
+    expect(st().lines[0].points).toEqual([[0, 0], [8, 1]]);
+    // A line whose last point goes is gone; the next new line takes the free name.
+    st().removePoint(1, 0);
+    expect(st().lines.map((l) => l.name)).toEqual(['Line 1', 'Line 3']);
+    st().addPoint([5, 5]);
+    expect(st().lines[2].name).toBe('Line 2');
+    st().rename(0, 'Over the ledge');
+    st().removeLine(1);
+    expect(st().lines.map((l) => l.name)).toEqual(['Over the ledge', 'Line 2']);
+    expect(st().active).toBe(1); // still drawing the line that was third, now second
   });
 
-  it('a drawn line becomes the scenario path (from, to, step, heading along it); an open or empty line does not', () => {
-    expect(lineToPath({ from: [1, 2], to: [5, 2] }, 0.05)).toEqual({ fromM: [1, 2], toM: [5, 2], stepM: 0.05, headingRad: null });
-    expect(lineToPath({ from: [1, 2], to: null }, 0.05)).toBeNull();
-    expect(lineToPath({ from: [1, 2], to: [1, 2] }, 0.05)).toBeNull();
-    expect(candidateSpecs([lineToPath({ from: [0, 0], to: [1, 0] }, 0.1), null, lineToPath({ from: [0, 1], to: [1, 1] }, 0.1)]).map((l) => l.index)).toEqual([0, 2]);
+  it('a drawn line becomes a pass path (its points, the step, heading along the legs); a line still being drawn does not', () => {
+    expect(lineToPath({ name: 'a', points: [[1, 2], [5, 2]] }, 0.05)).toEqual({ fromM: [1, 2], toM: [5, 2], stepM: 0.05, headingRad: null });
+    expect(lineToPath({ name: 'a', points: [[1, 2], [3, 3], [5, 2]] }, 0.05)).toEqual({ fromM: [1, 2], viaM: [[3, 3]], toM: [5, 2], stepM: 0.05, headingRad: null });
+    expect(lineToPath({ name: 'a', points: [[1, 2]] }, 0.05)).toBeNull();
+    expect(lineToPath({ name: 'a', points: [[1, 2], [1, 2]] }, 0.05)).toBeNull();
+    expect(candidateSpecs([lineToPath({ name: 'a', points: [[0, 0], [1, 0]] }, 0.1), null, lineToPath({ name: 'b', points: [[0, 1], [1, 1]] }, 0.1)]).map((l) => l.index)).toEqual([0, 2]);
+  });
+
+  it('drawn lines and the scenario\'s saved lines: only lines that can be run are saved; the same lines compare equal', () => {
+    const lines = [
+      { name: 'A', points: [[0, 0], [3, 1], [6, 1]] as const },
+      { name: 'B', points: [[0, 0]] as const },
+    ];
+    const saved = linesToCandidates(lines);
+    expect(saved).toEqual([{ name: 'A', pointsM: [[0, 0], [3, 1], [6, 1]] }]);
+    expect(candidatesToLines(saved)).toEqual([lines[0]]);
+    expect(sameCandidates(saved, [{ name: 'A', pointsM: [[0, 0], [3, 1], [6, 1]] }])).toBe(true);
+    expect(sameCandidates(saved, [{ name: 'A', pointsM: [[0, 0], [3, 1], [6, 1.0001]] }])).toBe(false);
+    expect(sameCandidates(saved, [{ name: 'a', pointsM: [[0, 0], [3, 1], [6, 1]] }])).toBe(false);
+    expect(sameCandidates(undefined, [])).toBe(true);
   });
 });
 
@@ -102,7 +132,7 @@ describe('ranking drawn lines, ties shown as ties', () => {
     if (!parsed.ok) throw new Error('demo');
     const s = parsed.scenario;
     // Over the boulder (y = 0, as the demo's path) and 2.5 m to the right of it, both 8 m long.
-    const paths = [lineToPath({ from: [-0.5, 0], to: [7.5, 0] }, 0.1), lineToPath({ from: [-0.5, -2.5], to: [7.5, -2.5] }, 0.1)];
+    const paths = [lineToPath({ name: 'over', points: [[-0.5, 0], [7.5, 0]] }, 0.1), lineToPath({ name: 'beside', points: [[-0.5, -2.5], [7.5, -2.5]] }, 0.1)];
     const summaries = runLineSweepJob({ vehicle: s.vehicle, terrain: s.terrain, options: { friction: s.friction }, lines: candidateSpecs(paths) });
     const ranked = rankCandidates(summaries);
     // The line over the boulder hangs up on it (belly), so the line beside it ranks first.

@@ -81,7 +81,7 @@ export function PassPanel() {
     return (
       <section className="panel" aria-labelledby="pass-h">
         <h2 id="pass-h">Obstacle pass</h2>
-        <p className="hint">This scenario has no path. Give one in the scenario file ("path": from, to, step) to crawl the vehicle along it.</p>
+        <p className="hint">This scenario has no path. Draw one on the ground (Draw a line, then Use as the path) to crawl the vehicle along it.</p>
       </section>
     );
   }
@@ -112,7 +112,8 @@ export function PassPanel() {
           <h2 id="pass-h">Obstacle pass</h2>
         </summary>
         <p className="hint">
-          Crawl from ({scenario.path.fromM.map((m) => distanceText(m, units)).join(', ')}) to ({scenario.path.toM.map((m) => distanceText(m, units)).join(', ')}), a station every{' '}
+          Crawl from ({scenario.path.fromM.map((m) => distanceText(m, units)).join(', ')}) to ({scenario.path.toM.map((m) => distanceText(m, units)).join(', ')})
+          {scenario.path.viaM?.length ? ` through ${scenario.path.viaM.length} corner point${scenario.path.viaM.length === 1 ? '' : 's'}` : ''}, a station every{' '}
           {distanceText(scenario.path.stepM, units)}, each a standing pose.
         </p>
         <div className="buttons">

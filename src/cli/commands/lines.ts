@@ -1,5 +1,5 @@
 /** `plumbline lines FILE --offset FROM:TO:STEP --heading FROM:TO:STEP`: sweep lines, rank by smallest margin. */
-import { makeLines, rangeCount, rankLines, toSI, type LineSummary } from '../../core/index';
+import { PATH_STEP_DEFAULT_M, makeLines, pathPoints, rangeCount, rankLines, savedCandidateSpecs, toSI, type LineSpec, type LineSummary } from '../../core/index';
 import { EXIT_BAD_INPUT, EXIT_OK, type CommandSpec } from '../command';
 import { UNITS_OPTION, formatKeyValues, formatTable, outputUnits, quantityColumn } from '../format';
 import { loadScenarioFile, toJsonText } from '../load';
@@ -10,10 +10,11 @@ import { QUASI_STATIC_CAUTION } from '../../present/words';
 /** Most lines in one sweep. */
 const MAX_LINES = 5000;
 
-function lineJson(l: LineSummary, rank: number): object {
+function lineJson(l: LineSummary, rank: number, names: readonly string[] | null): object {
   return {
     rank,
     line: l.index,
+    ...(names ? { name: names[l.index], pointsM: pathPoints(l.path).map((q) => [round(q[0]), round(q[1])]) } : {}),
     offsetM: round(l.offsetM),
     headingChangeDeg: deg(l.headingChangeRad),
     fromM: l.path.fromM.map((v) => round(v)),
@@ -37,11 +38,15 @@ export const linesCommand: CommandSpec = {
     'A line is the scenario path moved to its left by an offset (in the file\'s length unit; negative: right)\n' +
     'and turned counter-clockwise by a heading change (degrees) about its midpoint. Lines are ranked by\n' +
     'their smallest force-angle margin; a line that tips ranks below every line that does not.\n' +
-    'Runs on worker threads (one per core) and falls back to one thread if they cannot start.',
-  args: [{ name: 'FILE', description: 'scenario file (JSON) with a path' }],
+    'Runs on worker threads (one per core) and falls back to one thread if they cannot start.\n' +
+    'With --saved, the lines are the scenario\'s saved candidate lines instead (the file\'s "candidates",\n' +
+    'drawn and saved in the app), each run at the path\'s station spacing (5 cm without a path), ranked the\n' +
+    'same way; --offset and --heading do not apply then.',
+  args: [{ name: 'FILE', description: 'scenario file (JSON) with a path, or with saved lines for --saved' }],
   options: [
     { name: 'offset', kind: 'string', valueName: 'FROM:TO:STEP', description: 'sideways offsets (file length unit)', default: '0' },
     { name: 'heading', kind: 'string', valueName: 'FROM:TO:STEP', description: 'heading changes (degrees)', default: '0' },
+    { name: 'saved', kind: 'flag', description: 'rank the scenario\'s saved candidate lines ("candidates") instead of a sweep' },
     { name: 'workers', kind: 'number', valueName: 'N', description: 'worker threads (default: one per core; 0 runs in-process)' },
     { name: 'json', kind: 'flag', description: 'print one JSON object (metres, degrees), lines best first' },
     { name: 'csv', kind: 'flag', description: 'print one CSV row per line, best first' },
@@ -54,10 +59,20 @@ export const linesCommand: CommandSpec = {
     const loaded = loadScenarioFile(file, io);
     if (!loaded.ok) return EXIT_BAD_INPUT;
     const s = loaded.scenario;
-    if (!s.path) {
-      io.err(`${file}: path: required for a line sweep (from, to, step)`);
+    const saved = Boolean(args.options.saved);
+    if (saved && (String(args.options.offset) !== '0' || String(args.options.heading) !== '0')) {
+      io.err('lines: --saved ranks the saved lines as drawn; leave out --offset and --heading');
       return EXIT_BAD_INPUT;
     }
+    if (saved && !(s.candidates && s.candidates.length > 0)) {
+      io.err(`${file}: candidates: no saved lines in this file (draw and save them in the app, or add "candidates": [{ "name", "points" }])`);
+      return EXIT_BAD_INPUT;
+    }
+    if (!saved && !s.path) {
+      io.err(`${file}: path: required for a line sweep (its points, or from and to, and a step); or use --saved for the saved lines`);
+      return EXIT_BAD_INPUT;
+    }
+    const names = saved ? s.candidates!.map((c) => c.name) : null;
     const off = parseRange('offset', String(args.options.offset));
     const hd = parseRange('heading', String(args.options.heading));
     // Offsets in the file's length unit, headings in degrees: converted here, at the edge.
@@ -70,7 +85,7 @@ export const linesCommand: CommandSpec = {
       io.err(`lines: the ranges give ${count} lines; must be 1 to ${MAX_LINES}`);
       return EXIT_BAD_INPUT;
     }
-    const lines = makeLines(s.path, offsets, headings);
+    const lines: LineSpec[] = saved ? savedCandidateSpecs(s.candidates!, s.path?.stepM ?? PATH_STEP_DEFAULT_M) : makeLines(s.path!, offsets, headings);
     const workersOpt = args.options.workers;
     if (workersOpt !== undefined && !(Number.isInteger(workersOpt) && (workersOpt as number) >= 0)) {
       io.err(`--workers: must be a whole number ≥ 0, got ${String(workersOpt)}`);
@@ -101,21 +116,20 @@ export const linesCommand: CommandSpec = {
       io.out(
         toJsonText({
           lineCount: lines.length,
-          best: lineJson(ranking.best, 1),
-          worst: lineJson(ranking.worst, ranking.rank[ranking.rank.length - 1]),
+          best: lineJson(ranking.best, 1, names),
+          worst: lineJson(ranking.worst, ranking.rank[ranking.rank.length - 1], names),
           rankResolutionDeg: deg(ranking.resolutionRad),
-          lines: ranking.ranked.map((l, i) => ({ ...lineJson(l, ranking.rank[i]), tiedWith: ranking.tiedWith[i] })),
+          lines: ranking.ranked.map((l, i) => ({ ...lineJson(l, ranking.rank[i], names), tiedWith: ranking.tiedWith[i] })),
         }),
       );
     } else if (args.options.csv) {
       io.out(
         formatCsv(
-          ['rank', 'line', 'offset_m', 'heading_change_deg', 'min_force_angle_deg', 'at_m', 'energy_at_min_m', 'min_clearance_m', 'first_unload', 'first_lift', 'tip_at_m'],
+          ['rank', 'line', ...(names ? ['name'] : ['offset_m', 'heading_change_deg']), 'min_force_angle_deg', 'at_m', 'energy_at_min_m', 'min_clearance_m', 'first_unload', 'first_lift', 'tip_at_m'],
           ranking.ranked.map((l, i) => [
             ranking.rank[i],
             l.index,
-            round(l.offsetM),
-            deg(l.headingChangeRad),
+            ...(names ? [names[l.index]] : [round(l.offsetM), deg(l.headingChangeRad)]),
             deg(l.minForceAngleRad),
             round(l.minMarginDistanceM),
             round(l.energyAtMinM),
@@ -129,8 +143,8 @@ export const linesCommand: CommandSpec = {
     } else {
       const u = outputUnits(args.options, s.units);
       const describe = (l: LineSummary) =>
-        `offset ${changeText('distance', l.offsetM, u)}, heading ${changeText('angle', l.headingChangeRad, u)}: smallest force-angle margin ${angleText(l.minForceAngleRad)}${l.tip ? `, tips at ${distanceText(l.tip.distanceM, u)}` : ''}`;
-      io.out(`${s.name}: ${s.vehicle.name}, ${lines.length} lines`);
+        `${names ? `"${names[l.index]}"` : `offset ${changeText('distance', l.offsetM, u)}, heading ${changeText('angle', l.headingChangeRad, u)}`}: smallest force-angle margin ${angleText(l.minForceAngleRad)}${l.tip ? `, tips at ${distanceText(l.tip.distanceM, u)}` : ''}`;
+      io.out(`${s.name}: ${s.vehicle.name}, ${lines.length} ${names ? 'saved ' : ''}lines`);
       const tie = (tied: boolean) => (tied ? ' (tied with others within 0.1°)' : '');
       io.out(formatKeyValues([['best line', describe(ranking.best) + tie(ranking.bestTied)], ['worst line', describe(ranking.worst) + tie(ranking.worstTied)]]));
       io.out('');
@@ -138,8 +152,7 @@ export const linesCommand: CommandSpec = {
         formatTable(
           [
             { header: 'rank', digits: 0 },
-            quantityColumn('offset', 'distance', u),
-            { header: 'heading', unit: '°', align: 'right' },
+            ...(names ? [{ header: 'saved line' }] : [quantityColumn('offset', 'distance', u), { header: 'heading', unit: '°', align: 'right' as const }]),
             { header: 'min force-angle', unit: '°', align: 'right' },
             quantityColumn('at', 'distance', u),
             quantityColumn('underbody gap', 'short', u),
@@ -148,8 +161,7 @@ export const linesCommand: CommandSpec = {
           ],
           ranking.ranked.map((l, i) => [
             ranking.rank[i],
-            changeText('distance', l.offsetM, u, false),
-            changeText('angle', l.headingChangeRad, u, false),
+            ...(names ? [names[l.index]] : [changeText('distance', l.offsetM, u, false), changeText('angle', l.headingChangeRad, u, false)]),
             valueText('angle', l.minForceAngleRad, u),
             valueText('distance', l.minMarginDistanceM, u),
             valueText('short', l.minClearanceM, u),

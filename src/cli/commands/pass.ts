@@ -1,5 +1,5 @@
 /** `plumbline pass FILE`: crawl the scenario's path station by station; events and the headline. */
-import { WHEEL_NAMES, passOutcome, runPass, type PassResult, type Scenario } from '../../core/index';
+import { WHEEL_NAMES, passOutcome, runPass, stationCount, type PassResult, type Scenario } from '../../core/index';
 import { EXIT_BAD_INPUT, EXIT_FAILURE, EXIT_OK, type CliIO, type CommandSpec } from '../command';
 import { UNITS_OPTION, formatKeyValues, formatTable, outputUnits, quantityColumn } from '../format';
 import { loadScenarioFile, toJsonText } from '../load';
@@ -151,8 +151,9 @@ export const passCommand: CommandSpec = {
   name: 'pass',
   summary: 'Obstacle pass: crawl the path station by station; which wheel goes light first, lifts, margins, clearance.',
   description:
-    'Steps the vehicle along the scenario\'s path (from, to, step; heading along the path unless it sets one),\n' +
-    'solving each station from the last. Events: a wheel light (below --light of its level load), lifted,\n' +
+    'Steps the vehicle along the scenario\'s path (its points, or from and to, at its step) and solves each\n' +
+    'station from the last. The heading follows each leg unless the path sets one; at a corner it turns over\n' +
+    'one wheelbase centred on the corner. Events: a wheel light (below --light of its level load), lifted,\n' +
     'at full bump or droop, sliding (needing more grip than the ground has); the body touching the ground;\n' +
     'hanging up (the body inside the ground: the pass stops); the tip (the pass stops).',
   args: [{ name: 'FILE', description: 'scenario file (JSON) with a path' }],
@@ -170,7 +171,7 @@ export const passCommand: CommandSpec = {
     if (!loaded.ok) return EXIT_BAD_INPUT;
     const s = loaded.scenario;
     if (!s.path) {
-      io.err(`${file}: path: required for a pass (from, to, step)`);
+      io.err(`${file}: path: required for a pass (its points, or from and to, and a step)`);
       return EXIT_BAD_INPUT;
     }
     const light = args.options.light as number;
@@ -197,6 +198,5 @@ export const passCommand: CommandSpec = {
 };
 
 function stationsOf(s: Scenario): number {
-  const p = s.path!;
-  return Math.hypot(p.toM[0] - p.fromM[0], p.toM[1] - p.fromM[1]) / p.stepM;
+  return stationCount(s.path!);
 }

@@ -78,8 +78,9 @@ export function rangeValues(r: SweepRange): number[] {
 
 /**
  * The lines of a sweep: every (offset, heading change) pair, offsets varying fastest. A line is
- * the path shifted to its left by the offset, then turned counter-clockwise by the heading change
- * about its (shifted) midpoint; a fixed path heading turns with it.
+ * the path shifted to its left (of the direction from its start to its end) by the offset, then
+ * turned counter-clockwise by the heading change about the (shifted) midpoint of start and end; its
+ * corner points move with it, and a fixed path heading turns with it.
  */
 export function makeLines(path: PathSpec, offsetsM: SweepRange, headingChangesRad: SweepRange): LineSpec[] {
   const dx = path.toM[0] - path.fromM[0];
@@ -98,12 +99,17 @@ export function makeLines(path: PathSpec, offsetsM: SweepRange, headingChangesRa
       const hy = 0.5 * dy;
       const rx = c * hx - s * hy;
       const ry = s * hx + c * hy;
+      // Corner points move with the line: about the chord's midpoint (cx, cy), shifted and turned.
+      const cx = 0.5 * (path.fromM[0] + path.toM[0]);
+      const cy = 0.5 * (path.fromM[1] + path.toM[1]);
+      const via = path.viaM?.map((q) => [mx + c * (q[0] - cx) - s * (q[1] - cy), my + s * (q[0] - cx) + c * (q[1] - cy)] as const);
       lines.push({
         index: lines.length,
         offsetM: off,
         headingChangeRad: dh,
         path: {
           fromM: [mx - rx, my - ry],
+          ...(via && via.length > 0 ? { viaM: via } : {}),
           toM: [mx + rx, my + ry],
           stepM: path.stepM,
           headingRad: path.headingRad === null ? null : path.headingRad + dh,

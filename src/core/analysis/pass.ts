@@ -12,6 +12,7 @@ import { WHEEL_NAMES } from '../model/types';
 import { DEFAULT_FRICTION, DEFAULT_MAX_ITERATIONS, solveEquilibrium } from '../solver/equilibrium';
 import type { VehicleModel } from '../solver/model';
 import { DEFAULT_CLEARANCE_GRID, UNDERBODY_PARTS, UnderbodySampler, type ClearanceGrid, type UnderbodyPart } from './clearance';
+import { PathWalker, pathLengthM } from './pathGeometry';
 
 /** Share of a wheel's level-ground load below which it counts as light. @default 0.25 */
 export const DEFAULT_LIGHT_SHARE = 0.25;
@@ -37,6 +38,11 @@ export interface PassOptions {
   readonly maxIterations?: number;
   /** Called with each station and the full solve it was made from (for drawing the vehicle there). */
   readonly onStation?: (station: PassStation, result: SolveResult) => void;
+  /**
+   * Length over which the heading turns at each corner of a polyline path (m), centred on the corner
+   * (see pathGeometry.ts). @default the vehicle's wheelbase
+   */
+  readonly cornerBlendM?: number;
 }
 
 export interface PassWheel {
@@ -53,7 +59,7 @@ export interface PassWheel {
 export interface PassStation {
   /** Station number, 0 at path.fromM. */
   readonly index: number;
-  /** Distance along the path from path.fromM (m). */
+  /** Distance along the path from path.fromM, along its legs (m). */
   readonly distanceM: number;
   readonly pose: Pose;
   readonly status: SolveStatus;
@@ -133,9 +139,9 @@ export interface PassResult {
   readonly evaluations: number;
 }
 
-/** Number of stations from → to at the step, both ends included (the last may be short). */
+/** Number of stations from → to (along every leg) at the step, both ends included (the last may be short). */
 export function stationCount(path: PathSpec): number {
-  const d = Math.hypot(path.toM[0] - path.fromM[0], path.toM[1] - path.fromM[1]);
+  const d = pathLengthM(path);
   const n = Math.floor(d / path.stepM + 1e-9);
   return d - n * path.stepM > 1e-9 * Math.max(1, d) ? n + 2 : n + 1;
 }
@@ -163,7 +169,8 @@ function nearlyStanding(r: SolveResult, wheelbaseM: number): boolean {
 
 /**
  * Runs the pass. The vehicle's reference point (ground, midway between the axles) moves from
- * path.fromM to path.toM; its heading is path.headingRad or, when null, along the path.
+ * path.fromM through path.viaM to path.toM; its heading is path.headingRad or, when null, along the
+ * leg it is on, turning over `cornerBlendM` at each corner (pathGeometry.ts).
  * At each station the solve is warm-started from the last (a speed-up: the solver returns the
  * station's own answer); if that fails it is retried with a higher iteration cap before the station counts as a tip. Allocates the per-station results only.
  */
@@ -171,12 +178,8 @@ export function runPass(model: VehicleModel, path: PathSpec, opts: PassOptions =
   const friction = opts.friction ?? DEFAULT_FRICTION;
   const lightShare = opts.lightShare ?? DEFAULT_LIGHT_SHARE;
   const sampler = new UnderbodySampler(model.vehicle, opts.clearanceGrid ?? DEFAULT_CLEARANCE_GRID);
-  const dx = path.toM[0] - path.fromM[0];
-  const dy = path.toM[1] - path.fromM[1];
-  const length = Math.hypot(dx, dy);
-  const ux = length > 0 ? dx / length : 1;
-  const uy = length > 0 ? dy / length : 0;
-  const heading = path.headingRad ?? Math.atan2(dy, dx);
+  const walker = new PathWalker(path, opts.cornerBlendM ?? model.wheelbaseM);
+  const length = walker.lengthM;
   const total = stationCount(path);
   const solveOpts = { tilt: opts.tilt, friction, maxIterations: opts.maxIterations, warmStart: null as Float64Array | null };
   const retryIterations = RETRY_ITERATION_FACTOR * (opts.maxIterations ?? DEFAULT_MAX_ITERATIONS);
@@ -212,7 +215,8 @@ export function runPass(model: VehicleModel, path: PathSpec, opts: PassOptions =
 
   for (let i = 0; i < total; i++) {
     const s = distanceOf(i);
-    const pose: Pose = { xM: path.fromM[0] + ux * s, yM: path.fromM[1] + uy * s, headingRad: heading };
+    walker.at(s);
+    const pose: Pose = { xM: walker.xM, yM: walker.yM, headingRad: walker.headingRad };
     solveOpts.warmStart = warm;
     let r = solveEquilibrium(model, pose, solveOpts);
     evaluations += r.evaluations;
@@ -228,7 +232,7 @@ export function runPass(model: VehicleModel, path: PathSpec, opts: PassOptions =
     const approximate = !standing(r) && nearlyStanding(r, model.wheelbaseM);
     const ok = approximate || standing(r);
     if (approximate) approximateStations++;
-    const clearance = sampler.measure(model.field, r, pose.xM, pose.yM, heading);
+    const clearance = sampler.measure(model.field, r, pose.xM, pose.yM, pose.headingRad);
     const hungUp = ok && clearance.minM < -HANG_UP_DEPTH_M;
     const w = r.wheels;
     const station: PassStation = {

@@ -8,6 +8,8 @@
  */
 import { compareLines, type LineSpec, type LineSummary } from './lines';
 import type { PathSpec } from '../model/types';
+import type { CandidateLine } from '../scenario/types';
+import { polylinePath } from './pathGeometry';
 
 /** Margins closer than this are a tie (rad): 0.1°. */
 export const LINE_TIE_RESOLUTION_RAD = (0.1 * Math.PI) / 180;
@@ -48,11 +50,20 @@ export function rankCandidates(summaries: readonly LineSummary[], resolutionRad 
   return out;
 }
 
-/** Drawn lines (start and end on the ground) as the line sweep's LineSpec, index = drawing order; null (an unfinished line) is skipped. */
+/** Drawn or saved lines (polylines on the ground) as the line sweep's LineSpec, index = drawing order; null (an unfinished line) is skipped. */
 export function candidateSpecs(paths: readonly (PathSpec | null)[]): LineSpec[] {
   const out: LineSpec[] = [];
   paths.forEach((path, index) => {
     if (path) out.push({ index, offsetM: 0, headingChangeRad: 0, path });
   });
   return out;
+}
+
+/**
+ * The scenario's saved candidate lines as the line sweep's LineSpec (index = their order in the
+ * file), each run at the scenario path's station spacing and heading rule (along the line), or at
+ * `stepM` when the scenario has no path.
+ */
+export function savedCandidateSpecs(candidates: readonly CandidateLine[], stepM: number): LineSpec[] {
+  return candidateSpecs(candidates.map((c) => polylinePath(c.pointsM, stepM)));
 }

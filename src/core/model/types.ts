@@ -416,9 +416,15 @@ export interface TiltSweepResult {
   readonly evaluations: number;
 }
 
-/** Vehicle path for an obstacle pass, in the terrain frame. */
+/**
+ * Vehicle path for an obstacle pass, in the terrain frame: a polyline from `fromM` through the
+ * points `viaM` (in order) to `toM`. Without `viaM` (or with it empty) the path is the straight
+ * line from → to, as every path was before polylines.
+ */
 export interface PathSpec {
   readonly fromM: readonly [x: number, y: number];
+  /** Corner points between from and to, in driving order (m); absent or empty: straight. */
+  readonly viaM?: readonly (readonly [x: number, y: number])[];
   readonly toM: readonly [x: number, y: number];
   /** Station spacing (m). */
   readonly stepM: number;

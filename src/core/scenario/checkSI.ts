@@ -13,6 +13,7 @@ import {
   GROUND_FIELDS,
   PATH_FIELDS,
   PATH_HEADING_FIELD,
+  PATH_POINT_FIELDS,
   PAYLOAD_FIELDS,
   POSE_FIELDS,
   TILT_FIELDS,
@@ -31,6 +32,8 @@ import {
 import { boundMessage, controlCharProblem, describeValue } from './messages';
 import { SCENARIO_LIMITS } from './schema';
 import { crossChecks } from './parse';
+import { pathToFile } from './write';
+import { pathPoints } from '../analysis/pathGeometry';
 
 /** The first bound a file value breaks, as a message; null when it keeps them all. */
 export function boundProblem(kind: QuantityKind, bounds: readonly Bound[], fileValue: number, units: UnitSystem): string | null {
@@ -139,6 +142,20 @@ export function checkScenarioSI(s: Scenario, units: UnitSystem = s.units): Scena
   if (s.path) {
     checkRows(PATH_FIELDS, s.path, 'path', units, errors);
     if (s.path.headingRad !== null) checkRows([PATH_HEADING_FIELD], s.path, 'path', units, errors);
+    const n = 2 + (s.path.viaM?.length ?? 0);
+    if (n > L.pathPoints) errors.push({ path: 'path.points', message: `must have at most ${L.pathPoints} points ({ "x", "y" }), got ${n}` });
+    else pathPoints(s.path).forEach((q, i) => checkRows(PATH_POINT_FIELDS, { xM: q[0], yM: q[1] }, `path.points[${i}]`, units, errors));
+  }
+  const candidates = s.candidates ?? [];
+  if (candidates.length > L.candidates) {
+    errors.push({ path: 'candidates', message: `must have at most ${L.candidates} candidate lines, got ${candidates.length}` });
+  } else {
+    candidates.forEach((c, i) => {
+      text(`candidates[${i}].name`, c.name, L.nameChars, true);
+      if (c.pointsM.length < 2 || c.pointsM.length > L.pathPoints) {
+        errors.push({ path: `candidates[${i}].points`, message: `must have 2 to ${L.pathPoints} points ({ "x", "y" }), got ${c.pointsM.length}` });
+      } else c.pointsM.forEach((q, k) => checkRows(PATH_POINT_FIELDS, { xM: q[0], yM: q[1] }, `candidates[${i}].points[${k}]`, units, errors));
+    });
   }
   checkRows(GROUND_FIELDS, s, 'ground', units, errors);
 
@@ -153,7 +170,11 @@ export function checkScenarioSI(s: Scenario, units: UnitSystem = s.units): Scena
     rear: rowsToFile(AXLE_FIELDS, v.suspensionRear, units, { type: v.suspensionRear.type }),
   };
   vehicle.body = rowsToFile(BODY_FIELDS, v.body, units, {});
-  if (s.path) view.path = rowsToFile(PATH_FIELDS, s.path, units, {});
+  // Paths and saved lines in the file form (their points, step), for the leg and station rules.
+  if (s.path) view.path = pathToFile(s.path, units);
+  if (candidates.length > 0 && candidates.length <= L.candidates) {
+    view.candidates = candidates.map((c) => ({ name: c.name, points: c.pointsM.map((q) => rowsToFile(PATH_POINT_FIELDS, { xM: q[0], yM: q[1] }, units, {})) }));
+  }
   crossChecks(view, units, errors);
   return errors;
 }

@@ -401,13 +401,25 @@ export const TILT_FIELDS: readonly NumberRow[] = [
   num('angle', 'angleRad', 'angle', [['≥', -180], ['≤', 180]], { default: 0 }),
 ];
 
-/** `path.*`. The station spacing default is 5 cm. */
+/** `path.*` besides its points. The station spacing default is 5 cm. */
 export const PATH_STEP_DEFAULT_M = 0.05;
 export const PATH_FIELDS: readonly FieldRow[] = [
-  pair('from', 'fromM', 'x, y'),
-  pair('to', 'toM', 'x, y'),
-  num('step', 'stepM', 'length', [['>', 0]], { default: PATH_STEP_DEFAULT_M }),
+  num('step', 'stepM', 'length', [['>', 0]], { default: PATH_STEP_DEFAULT_M, label: 'Station spacing' }),
 ];
+/**
+ * One point of a path or of a saved candidate line, `{ "x": …, "y": … }` in the file's length unit
+ * (terrain frame). `path.points` and `candidates[i].points` are lists of these (2 to
+ * PATH_POINTS_MAX points, consecutive points apart); parse.ts and write.ts convert them.
+ */
+export const PATH_POINT_FIELDS: readonly NumberRow[] = [
+  num('x', 'xM', 'length', COORD, { label: 'x' }),
+  num('y', 'yM', 'length', COORD, { label: 'y' }),
+];
+/**
+ * The first form of a path, still read and written for a straight path: `from` and `to`, each
+ * `[x, y]` in the file's length unit. A path gives either these two or `points`.
+ */
+export const PATH_END_FIELDS: readonly PairRow[] = [pair('from', 'fromM', 'x, y'), pair('to', 'toM', 'x, y')];
 /** The path's heading: optional, SI `null` when absent (the path's own direction). */
 export const PATH_HEADING_FIELD: NumberRow = num('heading', 'headingRad', 'angle', HEADING_DEG, { optional: true });
 

@@ -1,8 +1,8 @@
 /** Scenario files: schema, validation, unit conversion, and writing back. */
-export type { Scenario, ScenarioError, ParseResult, UnitSystem } from './types';
+export type { Scenario, ScenarioError, ParseResult, UnitSystem, CandidateLine } from './types';
 export { parseScenario, parseScenarioText, parseScenarioBytes, defaultBodyShape, SCENARIO_DEFAULTS } from './parse';
 export { fileSizeProblem, decodeScenarioBytes, readScenarioJson, scanScenarioJson, type ReadResult } from './read';
-export { scenarioToFile, type ScenarioFileObject } from './write';
+export { scenarioToFile, pathToFile, type ScenarioFileObject } from './write';
 export { checkScenarioSI, boundProblem } from './checkSI';
 export { buildsToSI, buildsToFile, buildsCrossChecks } from './builds';
 export {
@@ -30,6 +30,9 @@ export {
   POSE_FIELDS,
   TILT_FIELDS,
   PATH_FIELDS,
+  PATH_POINT_FIELDS,
+  PATH_END_FIELDS,
+  PATH_STEP_DEFAULT_M,
   GROUND_FIELDS,
   PHYSICAL_MIN,
   fileNumber,

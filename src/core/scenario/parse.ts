@@ -11,7 +11,8 @@
 import { base64Length, compactHeightCount, decodeMask } from '../ground/base64';
 import { migrateScenario } from './migrate';
 import type { AxleSuspension, BodyShape, PathSpec, PayloadItem, Pose, TerrainFeature, Tilt, TyreSpec, Vehicle } from '../model/types';
-import type { ParseResult, Scenario, ScenarioError, UnitSystem } from './types';
+import type { CandidateLine, ParseResult, Scenario, ScenarioError, UnitSystem } from './types';
+import { polylinePath, type PathXY } from '../analysis/pathGeometry';
 import {
   DOWNHILL_NAMES,
   SCENARIO_LIMITS,
@@ -301,17 +302,30 @@ export function crossChecks(data: unknown, units: UnitSystem, errors: ScenarioEr
     }
   }
 
-  // Path: a real segment, and not more stations than a pass can afford.
+  // Path: either `points` or the first form `from` + `to`; legs of some length; not more stations
+  // than a pass can afford. Saved candidate lines: the same rules, names used once.
   const path = own(data, 'path');
-  const from = own(path, 'from');
-  const to = own(path, 'to');
   const pairOk = (p: string, v: unknown): v is [number, number] =>
     Array.isArray(v) && v.length === 2 && num(`${p}[0]`, v[0]) && num(`${p}[1]`, v[1]) && !bad.has(p);
-  if (pairOk('path.from', from) && pairOk('path.to', to)) {
-    const dist = Math.hypot(to[0] - from[0], to[1] - from[1]);
-    if (dist === 0) push('path.to', `must differ from path.from, got ${describeValue(to)}`);
-    const stepRaw = own(path, 'step');
-    const step = stepRaw === undefined ? metricToFileUnits('length', SCENARIO_DEFAULTS.pathStepM, units) : stepRaw;
+  const stepRaw = own(path, 'step');
+  const step = stepRaw === undefined ? metricToFileUnits('length', SCENARIO_DEFAULTS.pathStepM, units) : stepRaw;
+  if (isPlainObject(path)) {
+    const points = own(path, 'points');
+    const from = own(path, 'from');
+    const to = own(path, 'to');
+    let xy: [number, number][] | null = null;
+    if (points !== undefined) {
+      if (from !== undefined || to !== undefined) push('path.points', 'give either points or from and to (the first form), not both');
+      else xy = pointList('path.points', points);
+    } else if (from === undefined && to === undefined) {
+      push('path.points', `required (a list of 2 to ${SCENARIO_LIMITS.pathPoints} points { "x", "y" } in ${L}), or from and to`);
+    } else if (from === undefined || to === undefined) {
+      push(from === undefined ? 'path.from' : 'path.to', `required (with path.${from === undefined ? 'to' : 'from'})`);
+    } else if (pairOk('path.from', from) && pairOk('path.to', to)) {
+      if (from[0] === to[0] && from[1] === to[1]) push('path.to', `must differ from path.from, got ${describeValue(to)}`);
+      else xy = [from, to];
+    }
+    const dist = xy ? polylineLength(xy) : 0;
     if (dist > 0 && positive('path.step', step)) {
       const stations = Math.floor(dist / step) + 1;
       if (stations > SCENARIO_LIMITS.pathStations) {
@@ -323,6 +337,53 @@ export function crossChecks(data: unknown, units: UnitSystem, errors: ScenarioEr
       }
     }
   }
+  const candidates = own(data, 'candidates');
+  if (Array.isArray(candidates) && candidates.length <= SCENARIO_LIMITS.candidates) {
+    const names = new Map<string, number>();
+    candidates.forEach((c, i) => {
+      const p = `candidates[${i}]`;
+      const name = own(c, 'name');
+      if (typeof name === 'string' && !bad.has(`${p}.name`)) {
+        const first = names.get(name);
+        if (first !== undefined) push(`${p}.name`, `already the name of candidates[${first}] (${describeValue(name)}); each saved line needs its own name`);
+        else names.set(name, i);
+      }
+      const xy = pointList(`${p}.points`, own(c, 'points'));
+      const dist = xy ? polylineLength(xy) : 0;
+      if (dist > 0 && positive('path.step', step) && Math.floor(dist / step) + 1 > SCENARIO_LIMITS.pathStations) {
+        push(`${p}.points`, `this line is ${withUnit(dist, L)} long: more than ${SCENARIO_LIMITS.pathStations} stations at the path's step (${withUnit(step, L)})`);
+      }
+    });
+  }
+
+  /** The points of a list whose entries are valid, each apart from the one before; null when any is bad. */
+  function pointList(p: string, v: unknown): [number, number][] | null {
+    if (!Array.isArray(v) || v.length < 2 || v.length > SCENARIO_LIMITS.pathPoints || bad.has(p)) return null;
+    const out: [number, number][] = [];
+    let ok = true;
+    for (let i = 0; i < v.length; i++) {
+      const x = own(v[i], 'x');
+      const y = own(v[i], 'y');
+      if (!num(`${p}[${i}].x`, x) || !num(`${p}[${i}].y`, y) || bad.has(`${p}[${i}]`)) {
+        ok = false;
+        continue;
+      }
+      const prev = out[out.length - 1];
+      if (ok && prev && prev[0] === x && prev[1] === y) {
+        push(`${p}[${i}]`, `must differ from ${p}[${i - 1}] (a leg of length 0), got x ${x}, y ${y}`);
+        ok = false;
+      }
+      out.push([x, y]);
+    }
+    return ok ? out : null;
+  }
+}
+
+/** Length along a list of points (in their unit). */
+function polylineLength(xy: readonly (readonly [number, number])[]): number {
+  let d = 0;
+  for (let i = 1; i < xy.length; i++) d += Math.hypot(xy[i][0] - xy[i - 1][0], xy[i][1] - xy[i - 1][1]);
+  return d;
 }
 
 /** Validated file data → the SI core form, defaults applied (from the field table, fields.ts). */
@@ -388,10 +449,17 @@ function toScenario(d: ScenarioFileData, warnings: string[]): Scenario {
   const downhillDeg = typeof downhill === 'string' ? DOWNHILL_NAMES[downhill] : ((downhill % 360) + 360) % 360;
   let path: PathSpec | null = null;
   if (d.path) {
-    path = si<PathSpec>(PATH_FIELDS, d.path, {
-      headingRad: d.path.heading === undefined ? null : toSI('angle', d.path.heading as number, u),
-    });
+    const m = (v: number) => toSI('length', v, u);
+    const pts: PathXY[] = d.path.points
+      ? d.path.points.map((q) => [m(q.x as number), m(q.y as number)] as const)
+      : [d.path.from as PathXY, d.path.to as PathXY].map((q) => [m(q[0]), m(q[1])] as const);
+    const rest = si<Pick<PathSpec, 'stepM'>>(PATH_FIELDS, d.path);
+    path = polylinePath(pts, rest.stepM, d.path.heading === undefined ? null : toSI('angle', d.path.heading as number, u));
   }
+  const candidates: CandidateLine[] | undefined = d.candidates?.map((c) => ({
+    name: c.name,
+    pointsM: c.points.map((q) => [toSI('length', q.x as number, u), toSI('length', q.y as number, u)] as const),
+  }));
   return {
     version: d.version,
     name: d.name,
@@ -404,6 +472,7 @@ function toScenario(d: ScenarioFileData, warnings: string[]): Scenario {
     ...si<{ friction: number }>(GROUND_FIELDS, d.ground ?? {}),
     notes: d.notes ?? D.notes,
     ...(d.builds ? { builds: buildsToSI(d.builds, u) } : {}),
+    ...(candidates ? { candidates } : {}),
   };
 }
 

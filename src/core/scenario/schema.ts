@@ -20,8 +20,10 @@ import {
   FEATURE_FIELDS,
   FEATURE_TYPES,
   GROUND_FIELDS,
+  PATH_END_FIELDS,
   PATH_FIELDS,
   PATH_HEADING_FIELD,
+  PATH_POINT_FIELDS,
   PAYLOAD_FIELDS,
   PLAUSIBLE,
   POSE_FIELDS,
@@ -66,8 +68,12 @@ export const SCENARIO_LIMITS = {
   profilePoints: 100_000,
   /** Nodes per grid feature (2048 × 2048): 32 MiB of heights as Float64. */
   gridNodes: 4_194_304,
-  /** Stations along a path (from, to, step). */
+  /** Stations along a path (its length over its step). */
   pathStations: 100_000,
+  /** Points in a path or in one saved candidate line (start and end included). */
+  pathPoints: 200,
+  /** Saved candidate lines per scenario. */
+  candidates: 20,
   /** Characters in a name or label. */
   nameChars: 200,
   /** Characters in the notes. */
@@ -339,6 +345,9 @@ export function buildScenarioSchema(u: UnitSystem) {
     for (const key of order) out[key] = shape[key] ?? obj(shapeOf(nested.get(key)!));
     return out;
   };
+  /** Points of a path or a saved line: `[{ "x": …, "y": … }, …]`, 2 to SCENARIO_LIMITS.pathPoints. */
+  const pathPoints = () => list(obj(shapeOf(PATH_POINT_FIELDS)), 2, L.pathPoints, 'points ({ "x", "y" })');
+
 
   // Imported ground (a grid) may also carry its filled-cell mask and where it came from.
   const featureVariant = (t: (typeof FEATURE_TYPES)[number]) =>
@@ -464,9 +473,17 @@ export function buildScenarioSchema(u: UnitSystem) {
     terrain: obj({ features: list(feature, 0, L.features, 'features') }),
     pose: obj(shapeOf(POSE_FIELDS)).optional(),
     tilt: obj({ ...shapeOf(TILT_FIELDS), downhill: downhill.optional() }).optional(),
-    path: obj({ ...shapeOf(PATH_FIELDS), heading: rowType(PATH_HEADING_FIELD) })
+    // Either `points` or the first form `from` + `to` (checked in crossChecks, parse.ts).
+    path: obj({
+      points: pathPoints().optional(),
+      from: rowType(PATH_END_FIELDS[0]).optional(),
+      to: rowType(PATH_END_FIELDS[1]).optional(),
+      ...shapeOf(PATH_FIELDS),
+      heading: rowType(PATH_HEADING_FIELD),
+    })
       .nullable()
       .optional(),
+    candidates: list(obj({ name: text(L.nameChars, true), points: pathPoints() }), 0, L.candidates, 'candidate lines').optional(),
     builds: list(build, 0, B.builds, 'builds').optional(),
     ground: obj(shapeOf(GROUND_FIELDS)).optional(),
   });

@@ -28,6 +28,17 @@ export interface Scenario {
   readonly notes: string;
   /** Builds (modifications of the vehicle) for side-by-side comparison; absent or [] when the file gives none. */
   readonly builds?: readonly BuildSpec[];
+  /**
+   * Saved candidate lines (drawn in the app, compared as the line sweep compares lines, each run at
+   * the path's station spacing); absent or [] when the file gives none.
+   */
+  readonly candidates?: readonly CandidateLine[];
+}
+
+/** A named candidate line: a polyline on the ground (terrain frame, m), 2 or more points, in driving order. */
+export interface CandidateLine {
+  readonly name: string;
+  readonly pointsM: readonly (readonly [x: number, y: number])[];
 }
 
 /** One problem found in a scenario file: the field path (e.g. `vehicle.track.front`) and what is wrong. */

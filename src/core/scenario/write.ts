@@ -5,7 +5,8 @@
  * in the file's unit that reads back as the same SI value (`fileNumber`), so a value typed in the
  * file's unit is written as typed (1720 lb, not 1719.9999999999998).
  */
-import type { TerrainFeature } from '../model/types';
+import type { PathSpec, TerrainFeature } from '../model/types';
+import { pathPoints } from '../analysis/pathGeometry';
 import type { Scenario, UnitSystem } from './types';
 import { DOWNHILL_NAMES, type DownhillName } from './schema';
 import {
@@ -13,8 +14,10 @@ import {
   BODY_FIELDS,
   FEATURE_FIELDS,
   GROUND_FIELDS,
+  PATH_END_FIELDS,
   PATH_FIELDS,
   PATH_HEADING_FIELD,
+  PATH_POINT_FIELDS,
   PAYLOAD_FIELDS,
   POSE_FIELDS,
   RAD_PER_DEG,
@@ -70,11 +73,26 @@ export function scenarioToFile(s: Scenario, units: UnitSystem = s.units): Scenar
     pose: file(POSE_FIELDS, s.pose),
     tilt: { ...file(TILT_FIELDS, s.tilt), downhill },
   };
-  if (s.path) {
-    out.path = file(PATH_FIELDS, s.path);
-    if (s.path.headingRad !== null) file([PATH_HEADING_FIELD], s.path, out.path as Record<string, unknown>);
-  }
+  if (s.path) out.path = pathToFile(s.path, units);
   out.ground = file(GROUND_FIELDS, s);
   if (s.builds && s.builds.length > 0) out.builds = buildsToFile(s.builds, units);
+  if (s.candidates && s.candidates.length > 0) out.candidates = s.candidates.map((c) => ({ name: c.name, points: pointsToFile(c.pointsM, units) }));
+  return out;
+}
+
+/** Points as `{ "x", "y" }` in the file's length unit. */
+function pointsToFile(points: readonly (readonly [number, number])[], units: UnitSystem): Record<string, unknown>[] {
+  return points.map((q) => rowsToFile(PATH_POINT_FIELDS, { xM: q[0], yM: q[1] }, units, {}));
+}
+
+/**
+ * A path in its file form: a straight path in the first form (`from`, `to`), which every version of
+ * Plumbline reads; a path with corners as `points`.
+ */
+export function pathToFile(p: PathSpec, units: UnitSystem): Record<string, unknown> {
+  const out: Record<string, unknown> =
+    p.viaM && p.viaM.length > 0 ? { points: pointsToFile(pathPoints(p), units) } : rowsToFile(PATH_END_FIELDS, p, units, {});
+  rowsToFile(PATH_FIELDS, p, units, out);
+  if (p.headingRad !== null) rowsToFile([PATH_HEADING_FIELD], p, units, out);
   return out;
 }
