@@ -110,7 +110,12 @@ table { border-collapse: collapse; margin: 1mm 0 3mm; break-inside: avoid; page-
 table.long { break-inside: auto; page-break-inside: auto; }
 thead { display: table-header-group; }
 tr { break-inside: avoid; page-break-inside: avoid; }
-table.compare td.words { white-space: normal; text-align: left; font-size: 9pt; }
+table.compare { width: 100%; table-layout: fixed; font-size: 8.5pt; }
+table.compare caption { text-align: left; caption-side: top; font-size: 10pt; }
+table.compare col.label { width: 64mm; }
+table.compare th, table.compare td { padding: 0.5mm 1.2mm; }
+table.compare td.n { white-space: normal; }
+table.compare td.words { text-align: left; }
 th, td { border: 0.5pt solid #888; padding: 0.6mm 1.6mm; text-align: left; vertical-align: top; }
 th { background: #eee; font-weight: 600; }
 td.n { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
@@ -527,16 +532,17 @@ function buildsSection(d: ReportData, rows: readonly BuildRow[], u: U): string {
   const ends = rows[0].passEnd
     ? `<tr id="builds-pass-end"><td>${esc(PASS_END_LABEL)}</td>${rows.map((r) => `<td class="words">${esc(passEndWords(r.passEnd, u))}</td>`).join('')}</tr>`
     : '';
-  const compare = `<table class="compare" id="builds-table"><thead><tr>${th}</tr></thead><tbody>${tr}${ends}</tbody></table>`;
   const path = d.scenario.path;
+  // The title and its lead-in are the table's caption: part of the table's box, so they print on the
+  // page where the table starts (a kept box taller than what is left of a page would be split).
+  const caption =
+    `<caption><h2>Build comparison: ${esc(d.scenario.vehicle.name)}, ${rows.length} configurations</h2>` +
+    `<p>Each build on a level tilt table (lift and tip each way, and the rose)${path ? ' and on the scenario path (the pass: where it goes light, lifts a wheel, hangs up, slips or tips)' : ''}. Changes from the reference build in brackets.</p></caption>`;
+  const compare = `<table class="compare" id="builds-table">${caption}<colgroup><col class="label">${rows.map(() => '<col>').join('')}</colgroup><thead><tr>${th}</tr></thead><tbody>${tr}${ends}</tbody></table>`;
   return (
     '<section id="builds">' +
-    keep(
-      `<h2>Build comparison: ${esc(d.scenario.vehicle.name)}, ${rows.length} configurations</h2>`,
-      `<p>Each build on a level tilt table (lift and tip each way, and the rose)${path ? ' and on the scenario path (the pass: where it goes light, lifts a wheel, hangs up, slips or tips)' : ''}. Changes from the reference build in brackets.</p>`,
-      compare,
-      `<p class="small">${esc(METRICS_NOTE)}</p>`,
-    ) +
+    compare +
+    `<p class="small">${esc(METRICS_NOTE)}</p>` +
     keep(
       '<h3>The builds as modelled</h3>',
       table(['build', 'modifications as modelled'], rows.map((r) => [r.name, buildChangesWords(r.changes, u)])),

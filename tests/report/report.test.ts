@@ -91,9 +91,9 @@ describe('report content', () => {
     expect(html).toMatch(/\.keep \{ break-inside: avoid/);
     expect(html).toMatch(/figure \{[^}]*break-inside: avoid/);
     expect(html).toMatch(/table \{[^}]*break-inside: avoid/);
-    // Every h2 opens a kept box with the block after it, or is followed only by kept boxes (the methods).
+    // Every h2 opens a kept box with the block after it, or is a table's caption (the comparison), or the caution's.
     const h2s = html.match(/<h2>/g)?.length ?? 0;
-    const kept = html.match(/<div class="keep"><h2>|class="caution" id="caution-\w+"><h2>/g)?.length ?? 0;
+    const kept = html.match(/<div class="keep"><h2>|<caption><h2>|class="caution" id="caution-\w+"><h2>/g)?.length ?? 0;
     expect(h2s).toBeGreaterThan(4);
     expect(kept).toBe(h2s);
   });
@@ -151,7 +151,7 @@ describe('report with builds', () => {
     expect(last).toBeLessThan(ref);
     expect(d.builds![d.builds!.length - 1].change.leftDownTipRad).toBeCloseTo(last - ref, 12);
     // Its own section under its own title, right after the headline; the hang-up row says how each build's pass ends.
-    expect(h).toMatch(/<section id="builds"><div class="keep"><h2>Build comparison: [^<]+, 3 configurations<\/h2>/);
+    expect(h).toMatch(/<section id="builds"><table class="compare" id="builds-table"><caption><h2>Build comparison: [^<]+, 3 configurations<\/h2>/);
     expect(h.indexOf('id="builds"')).toBeGreaterThan(h.indexOf('id="summary"'));
     expect(h.indexOf('id="builds"')).toBeLessThan(h.indexOf('id="rose"'));
     expect(h).toContain(esc(PASS_END_LABEL));
