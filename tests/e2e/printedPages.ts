@@ -43,7 +43,7 @@ export function printedPages(pdf: Buffer): PrintedPage[] {
   try {
     xml = execFileSync('pdftotext', ['-bbox-layout', file, '-'], { encoding: 'utf8', maxBuffer: 64 << 20 });
   } catch (e) {
-    throw new Error(`pdftotext failed (install Debian's poppler-utils: scripts/ensure-os-packages.sh does): ${(e as Error).message}`);
+    throw new Error(`pdftotext failed (install Debian's poppler-utils: scripts/ensure-os-packages.sh does): ${(e as Error).message}`, { cause: e });
   }
   const pages: PrintedPage[] = [];
   for (const pm of xml.matchAll(/<page width="([\d.]+)" height="([\d.]+)">([\s\S]*?)<\/page>/g)) {
