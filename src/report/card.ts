@@ -264,17 +264,17 @@ function diagram(c: CardData): string {
   const t = (n: CardinalName) => (d(n).tip ? f.deg(d(n).tip!.angleRad) : '> 89°');
   const l = (n: CardinalName) => (d(n).lift ? f.deg(d(n).lift!.angleRad) : '–');
   // Nose up the page; left side on the left.
-  return `<svg viewBox="0 0 240 200" style="width:70mm;height:58mm;flex:none" role="img" aria-label="Tip and lift slopes by side">
+  return `<svg viewBox="0 0 240 200" style="width:46mm;height:38mm;flex:none" role="img" aria-label="Tip and lift slopes by side">
 <rect x="95" y="45" width="50" height="110" rx="8" fill="#eef1f4" stroke="#000"/>
 <path d="M120 52 l-10 14 h20 z" fill="#000"/>
-<text x="120" y="14" text-anchor="middle" font-size="11" font-weight="700">${esc(t('noseDown'))}</text>
-<text x="120" y="28" text-anchor="middle" font-size="9">lifts ${esc(l('noseDown'))}</text>
-<text x="120" y="176" text-anchor="middle" font-size="11" font-weight="700">${esc(t('tailDown'))}</text>
-<text x="120" y="190" text-anchor="middle" font-size="9">lifts ${esc(l('tailDown'))}</text>
-<text x="46" y="96" text-anchor="middle" font-size="11" font-weight="700">${esc(t('leftDown'))}</text>
-<text x="46" y="110" text-anchor="middle" font-size="9">lifts ${esc(l('leftDown'))}</text>
-<text x="194" y="96" text-anchor="middle" font-size="11" font-weight="700">${esc(t('rightDown'))}</text>
-<text x="194" y="110" text-anchor="middle" font-size="9">lifts ${esc(l('rightDown'))}</text>
+<text x="120" y="16" text-anchor="middle" font-size="16" font-weight="700">${esc(t('noseDown'))}</text>
+<text x="120" y="32" text-anchor="middle" font-size="13">lifts ${esc(l('noseDown'))}</text>
+<text x="120" y="176" text-anchor="middle" font-size="16" font-weight="700">${esc(t('tailDown'))}</text>
+<text x="120" y="193" text-anchor="middle" font-size="13">lifts ${esc(l('tailDown'))}</text>
+<text x="46" y="96" text-anchor="middle" font-size="16" font-weight="700">${esc(t('leftDown'))}</text>
+<text x="46" y="113" text-anchor="middle" font-size="13">lifts ${esc(l('leftDown'))}</text>
+<text x="194" y="96" text-anchor="middle" font-size="16" font-weight="700">${esc(t('rightDown'))}</text>
+<text x="194" y="113" text-anchor="middle" font-size="13">lifts ${esc(l('rightDown'))}</text>
 </svg>`;
 }
 
@@ -283,7 +283,7 @@ const CSS = `
 * { box-sizing: border-box; }
 html, body { margin: 0; padding: 0; }
 body { font: 10pt/1.35 system-ui, -apple-system, 'Segoe UI', Roboto, sans-serif; color: #000; background: #fff; }
-.card { width: 186mm; height: 250mm; overflow: hidden; border: 1.5pt solid #000; padding: 6mm 7mm; margin: 0 auto; display: flex; flex-direction: column; gap: 3mm; break-inside: avoid; page-break-inside: avoid; }
+.card { width: 186mm; height: 250mm; overflow: hidden; border: 1.5pt solid #000; padding: 5mm 7mm; margin: 0 auto; display: flex; flex-direction: column; gap: 1.5mm; break-inside: avoid; page-break-inside: avoid; }
 .card + .card { break-before: page; page-break-before: always; }
 @media screen { body { background: #dfe3e8; padding: 8mm 0; } .card { background: #fff; margin-bottom: 8mm; } }
 .card h1 { font-size: 15pt; margin: 0; }
@@ -291,22 +291,28 @@ body { font: 10pt/1.35 system-ui, -apple-system, 'Segoe UI', Roboto, sans-serif;
 .card .sub { font-size: 10pt; margin: 0; }
 .card ul { margin: 0; padding-left: 5mm; }
 .card table { border-collapse: collapse; width: 100%; font-variant-numeric: tabular-nums; }
-.card th, .card td { border: 0.6pt solid #000; padding: 1.2mm 2mm; text-align: right; }
+.card th, .card td { border: 0.6pt solid #000; padding: 0.8mm 2mm; text-align: right; }
 .card th:first-child, .card td:first-child { text-align: left; }
 .card thead th { background: #eee; font-size: 9pt; }
 .card td.op { font-weight: 700; font-size: 12pt; }
 .card .row { display: flex; gap: 5mm; align-items: center; }
-.card .caution { border: 1.2pt solid #000; background: #fff4d6; padding: 2mm 3mm; font-size: 9.5pt; }
+.card .caution { border: 1.2pt solid #000; background: #fff4d6; padding: 1.5mm 3mm; font-size: 9pt; }
 .card .fine { font-size: 8pt; color: #333; margin: 0; }
-.card .ground p { margin: 0 0 1mm; font-size: 9.5pt; }
-.card .ground p.worst { font-weight: 700; }
+.card .ground p { margin: 0 0 0.8mm; }
+.card .ground p.worst { font-size: 9.5pt; font-weight: 700; }
 .card .foot { margin-top: auto; display: flex; justify-content: space-between; font-size: 8pt; color: #333; }
 `;
+
+/** The vehicle's name without the configuration's (a build's vehicle is named "base (build)"; the next line names the build). */
+function baseName(c: CardData): string {
+  const tail = ` (${c.configName})`;
+  return c.vehicle.name.endsWith(tail) ? c.vehicle.name.slice(0, -tail.length) : c.vehicle.name;
+}
 
 function groundBlock(c: CardData): string {
   const lines = groundLines(c);
   if (!lines) return '';
-  return `<div class="ground" data-testid="card-worst-heading"><h2>On this ground: the worst heading</h2>${lines.map((l, i) => `<p class="${i === 1 ? 'worst' : 'sub'}">${esc(l)}</p>`).join('')}</div>`;
+  return `<div class="ground" data-testid="card-worst-heading"><h2>On this ground: the worst heading</h2>${lines.map((l, i) => `<p class="${i === 1 ? 'worst' : 'fine'}">${esc(l)}</p>`).join('')}</div>`;
 }
 
 function cardHtml(c: CardData, opts: { readonly dateText: string; readonly toolVersion: string; readonly fileName?: string }): string {
@@ -321,7 +327,7 @@ function cardHtml(c: CardData, opts: { readonly dateText: string; readonly toolV
     ? c.vehicle.payload.map((p) => `${esc(p.label)} ${f.mass(p.massKg)} at ${f.len(p.heightM)} up`).join('; ')
     : 'none';
   return `<section class="card" data-testid="limit-card" data-config="${esc(c.configName)}">
-<div><h1>Limit card: ${esc(c.vehicle.name)}</h1><p class="sub">Configuration: <b>${esc(c.configName)}</b> · ${esc(c.scenarioName)}</p></div>
+<div><h1>Limit card: ${esc(baseName(c))}</h1><p class="sub">Configuration: <b>${esc(c.configName)}</b> · ${esc(c.scenarioName)}</p></div>
 <div><h2>The build</h2><ul>${buildLines(c).map((l) => `<li>${esc(l)}</li>`).join('')}</ul></div>
 <div><h2>Load assumed</h2><p class="sub">Payload ${f.mass(c.payloadKg)}, of which on the roof ${f.mass(c.roofLoadKg)} (items at or above the ${f.len(c.vehicle.body.roofHeightM)} roof line): ${items}. Fuel, passengers and gear not listed here are not counted.</p></div>
 <div><h2>Slope from level at which it lifts a wheel and tips</h2>

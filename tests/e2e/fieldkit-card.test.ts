@@ -79,6 +79,8 @@ it('CLI card: one page per configuration on A4 and Letter (the ledge demo and it
     expect(await pagesOf(readFileSync(all, 'utf8'), format), format).toBe(3);
     expect(await pagesOf(readFileSync(one, 'utf8'), format), format).toBe(1);
   }
+  // The ledge builds' longer modification lines and the uneven ground's note still fit the card's box.
+  expect(await overflowingCards(readFileSync(all, 'utf8'))).toEqual([]);
 });
 
 it('app: the card button downloads the card of the vehicle on screen; it prints as exactly one page; its figures are the core\'s', async () => {

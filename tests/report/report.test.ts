@@ -159,5 +159,6 @@ describe('report with builds', () => {
       expect(r.passEnd).not.toBeNull();
       expect(h).toContain(`<td class="words">${esc(passEndWords(r.passEnd, 'metric'))}</td>`);
     }
-  });
+    // Three builds, each a 72-direction rose and a pass: minutes on a shared two-core machine.
+  }, 300_000);
 });
