@@ -122,7 +122,10 @@ export function ComparePanel() {
                       ))}
                     </tr>
                   ))}
-                  {rows.some((r) => r.passEnd) ? (
+                </tbody>
+                {/* How each build's pass ends (words, not a number to subtract): a footer row under the numbers. */}
+                {rows.some((r) => r.passEnd) ? (
+                  <tfoot>
                     <tr data-testid="compare-row-passEnd">
                       <th scope="row">{PASS_END_LABEL.charAt(0).toUpperCase() + PASS_END_LABEL.slice(1)}</th>
                       {rows.map((r, i) => (
@@ -131,8 +134,8 @@ export function ComparePanel() {
                         </td>
                       ))}
                     </tr>
-                  ) : null}
-                </tbody>
+                  </tfoot>
+                ) : null}
               </table>
             </div>
             <p className="fineprint">
