@@ -216,7 +216,7 @@ function buildLines(c: CardData): string[] {
   return lines;
 }
 
-/** The heading on the ground a direction in words, counter-clockwise from the terrain's x axis (0–360°). */
+/** A heading on the ground in degrees, counter-clockwise from the terrain's x axis (0–360°, to 0.1°). */
 function headingDeg(rad: number): string {
   const d = ((rad / DEG) % 360 + 360) % 360;
   return `${d.toFixed(1) === '360.0' ? '0.0' : d.toFixed(1)}°`;
