@@ -1,10 +1,11 @@
 #!/usr/bin/env bash
 # Plumbline's OS packages for the tests: Debian's chromium (the browser tests drive /usr/bin/chromium;
 # nothing downloads a browser) and gdal-bin (GDAL's command-line tools, an outside reference for the
-# terrain data). Run first by `npm test`, so that `npm ci && npm test` is all a fresh machine needs.
+# terrain data) and poppler-utils (pdftotext: the report's print test reads the text of each printed
+# PDF page with it). Run first by `npm test`, so that `npm ci && npm test` is all a fresh machine needs.
 #
 # When a tool is missing and we are root (or have password-less sudo) on a system with apt-get, it
-# runs `apt-get update && apt-get install -y chromium gdal-bin`. Otherwise it prints what to install
+# runs `apt-get update && apt-get install -y chromium gdal-bin poppler-utils`. Otherwise it prints what to install
 # and exits 1. PLUMBLINE_SKIP_OS_PACKAGES=1 skips the check (a machine where the tools live elsewhere).
 set -euo pipefail
 
@@ -24,6 +25,7 @@ find_missing() {
   if [ ! -x "$BIN/gdal_fillnodata" ] && [ ! -x "$BIN/gdal_fillnodata.py" ]; then
     missing+=("gdal_fillnodata")
   fi
+  [ -x "$BIN/pdftotext" ] || missing+=("pdftotext")
 }
 find_missing
 
@@ -48,7 +50,7 @@ if [ "${PLUMBLINE_OS_DRY_RUN:-}" = "1" ]; then
     echo "plumbline: would refuse: not root and no password-less sudo" >&2
     exit 1
   fi
-  echo "plumbline: would run: ${sudo_cmd[*]:+${sudo_cmd[*]} }apt-get update && ${sudo_cmd[*]:+${sudo_cmd[*]} }apt-get install -y chromium gdal-bin" >&2
+  echo "plumbline: would run: ${sudo_cmd[*]:+${sudo_cmd[*]} }apt-get update && ${sudo_cmd[*]:+${sudo_cmd[*]} }apt-get install -y chromium gdal-bin poppler-utils" >&2
   exit 0
 fi
 
@@ -56,16 +58,16 @@ if [ "${sudo_cmd[0]:-}" = "none" ] || ! command -v apt-get >/dev/null 2>&1; then
   cat >&2 <<'EOF'
 plumbline: cannot install them here (not root, no password-less sudo, or no apt-get).
 Install Debian's packages, then run npm test again:
-    sudo apt-get update && sudo apt-get install -y chromium gdal-bin
+    sudo apt-get update && sudo apt-get install -y chromium gdal-bin poppler-utils
 (The tests never download a browser; they drive /usr/bin/chromium.)
 EOF
   exit 1
 fi
 
-echo "plumbline: installing Debian's chromium and gdal-bin (apt-get, about a minute)" >&2
+echo "plumbline: installing Debian's chromium, gdal-bin and poppler-utils (apt-get, about a minute)" >&2
 export DEBIAN_FRONTEND=noninteractive
 "${sudo_cmd[@]}" apt-get update -qq
-"${sudo_cmd[@]}" apt-get install -y -qq chromium gdal-bin >/dev/null
+"${sudo_cmd[@]}" apt-get install -y -qq chromium gdal-bin poppler-utils >/dev/null
 find_missing
 if [ "${#missing[@]}" -ne 0 ]; then
   echo "plumbline: after apt-get install, still missing ${missing[*]} in $BIN; install them by hand and run npm test again" >&2

@@ -40,6 +40,12 @@ export const BUILD_METRICS: readonly MetricRow[] = [
   { key: 'passMinClearanceM', label: 'pass: least underbody gap', kind: 'short', better: 'higher' },
 ];
 
+/**
+ * The comparison's words row (not a number, so not in BUILD_METRICS): how each build's pass ends,
+ * hang-up (where, on what), slip or tip (passEndWords in words.ts gives the cell).
+ */
+export const PASS_END_LABEL = 'pass: hangs up, slips or tips? (where, on what)';
+
 /** The unit shown beside a metric's label ('' for a ratio). */
 export function metricUnit(kind: MetricKind, units: UnitSystem): string {
   return kind === 'direction' ? '°' : unitSymbol(kind, units);

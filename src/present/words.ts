@@ -5,10 +5,10 @@
  * 3 significant figures, the reader's units).
  */
 import type { SolveResult, SolveStatus } from '../core/model/types';
-import { passOutcome, type PassEvent, type PassResult } from '../core/analysis/pass';
+import { passOutcome, type PassEvent, type PassOutcome, type PassResult } from '../core/analysis/pass';
 import type { BuildChange } from '../core/analysis/builds';
 import { SPARE_DATUM, type SlopeToSpare, type SpareDirection } from '../core/analysis/spare';
-import { DEG_PER_RAD, RAD_PER_DEG, angleText, changeText, distanceText, fixed, lengthText, massText, percentText, quantityText, shortText, toDisplay, type UnitSystem } from './units';
+import { DEG_PER_RAD, NO_VALUE, RAD_PER_DEG, angleText, changeText, distanceText, fixed, lengthText, massText, percentText, quantityText, shortText, toDisplay, type UnitSystem } from './units';
 
 /** Slope printed as the maximum in operator manuals of ride-on mowers, utility vehicles and ATVs
  *  (10° when towing): common practice, no single published source (REFERENCES "Limits"). */
@@ -104,6 +104,30 @@ export function passHeadline(r: PassResult, units: UnitSystem): string {
   if (c !== null && c.clearanceM > 0) parts.push(`least underbody gap ${shortText(c.clearanceM, units)} (${partWords(c.part)}) at ${at(c.distanceM)}`);
   const s = parts.join('; ');
   return `${s.charAt(0).toUpperCase()}${s.slice(1)}.`;
+}
+
+/**
+ * How a build's pass ends, in a few words for a comparison cell: where it hangs up and on what
+ * (belly, bumper, axle), where it cannot climb without slipping and on which wheel, where it tips,
+ * or that it gets through. A slide before a hang-up is said too (the hang-up leads, as in
+ * passHeadline). Null (no path): NO_VALUE's dash.
+ */
+export function passEndWords(end: { readonly outcome: PassOutcome; readonly firstSlide: PassResult['firstSlide'] } | null, units: UnitSystem): string {
+  if (end === null) return NO_VALUE;
+  const at = (m: number) => distanceText(m, units);
+  const o = end.outcome;
+  const slipFirst = (before: number) =>
+    end.firstSlide && end.firstSlide.distanceM < before ? `; slips first at ${at(end.firstSlide.distanceM)} (${end.firstSlide.wheel} needs grip ${fixed(end.firstSlide.frictionDemand, 2)})` : '';
+  switch (o.kind) {
+    case 'tips':
+      return `tips at ${at(o.distanceM)}${slipFirst(o.distanceM)}`;
+    case 'hangs-up':
+      return `hangs up on the ${partWords(o.part)} at ${at(o.distanceM)} (${shortText(o.depthM, units)} into the ground)${slipFirst(o.distanceM)}`;
+    case 'slides':
+      return `cannot climb without slipping at ${at(o.distanceM)}: ${o.wheel} needs grip ${fixed(o.frictionDemand, 2)} on ground of ${fixed(o.friction, 2)}`;
+    case 'stands':
+      return 'gets through: no hang-up, no slip, no tip';
+  }
 }
 
 /** What an event is, without where. */

@@ -150,6 +150,7 @@ export function collectReport(s: Scenario, opts: ReportOptions = {}): ReportData
       terrain: s.terrain,
       path: s.path,
       friction: s.friction,
+      tilt: passOptionsOf(s).tilt,
       roseStepRad: 5 * RAD_PER_DEG,
       cgToleranceM: opts.cgToleranceM,
     });

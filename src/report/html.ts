@@ -1,8 +1,14 @@
 /**
  * The report as one self-contained HTML document: inline CSS, inline SVG charts, no scripts, no
  * external address of any kind (fonts are the reader's own), readable offline and printable to
- * PDF on A4 or Letter (the page size is left to the printer; content fits the narrower width,
- * and each section starts a new page).
+ * PDF on A4 or Letter (the page size is left to the printer; content fits the narrower width).
+ *
+ * Printing: no forced page breaks (a section starts where it fits, so no page is left nearly
+ * empty); a heading is never the last thing on a page (break-after: avoid, and each heading is
+ * wrapped with its first block in a `.keep` box that is not split); tables, figures and the
+ * caution are kept whole; a long table (the pass events) may run over a page, its header row
+ * repeated. The build comparison is a section of its own, under its own title, its table kept with
+ * its heading. tests/e2e/reportPrint.test.ts prints it with Chromium and measures the pages.
  *
  * The core never reads a clock: the tool version and the date are passed in.
  */
@@ -18,6 +24,7 @@ import {
   METRICS_NOTE,
   NO_VALUE,
   OF_STATIC_NOTE,
+  PASS_END_LABEL,
   RAD_PER_DEG,
   REPORT_CAUTIONS,
   TILT_DATUM_NOTE,
@@ -31,6 +38,7 @@ import {
   metricUnit,
   metricValue,
   partWords,
+  passEndWords,
   passHeadline as passHeadlineWords,
   percentText,
   quantityText,
@@ -66,11 +74,19 @@ export interface ReportMeta {
 /** A data: URL of a PNG or JPEG image in base64 (nothing that could load from elsewhere). */
 const SCENE_IMAGE_URL = /^data:image\/(?:png|jpeg);base64,[A-Za-z0-9+/]+=*$/;
 
+/** A heading kept with the block after it: the pair is never split over two pages. */
+function keep(...parts: string[]): string {
+  return `<div class="keep">${parts.join('')}</div>`;
+}
+
 function sceneImageSection(url: string): string {
   return (
-    '<section id="scene-view"><h2>The 3D view</h2>' +
-    '<p>The web app\'s 3D view as it was on screen when this report was made (it may show another pose than the drawing below).</p>' +
-    `<figure><img src="${url}" alt="The 3D view of the vehicle on the terrain" style="max-width:100%;height:auto;border:0.5pt solid #888"></figure>` +
+    '<section id="scene-view">' +
+    keep(
+      '<h2>The 3D view</h2>',
+      '<p>The web app\'s 3D view as it was on screen when this report was made (it may show another pose than the drawing of the key station).</p>',
+      `<figure><img src="${url}" alt="The 3D view of the vehicle on the terrain" style="max-width:100%;max-height:150mm;height:auto;border:0.5pt solid #888"></figure>`,
+    ) +
     '</section>'
   );
 }
@@ -82,13 +98,24 @@ body { font-family: "Helvetica Neue", Arial, sans-serif; font-size: 10pt; color:
 h1 { font-size: 17pt; margin: 0 0 2mm; }
 h2 { font-size: 13pt; margin: 0 0 2mm; border-bottom: 1.2pt solid #000; padding-bottom: 1mm; }
 h3 { font-size: 10.5pt; margin: 3mm 0 1mm; }
-p { margin: 1mm 0 2mm; }
-section { break-before: page; page-break-before: always; }
-section.first { break-before: auto; page-break-before: auto; }
+h1, h2, h3 { break-after: avoid; page-break-after: avoid; }
+p { margin: 1mm 0 2mm; orphans: 3; widows: 3; }
+section { margin-top: 7mm; }
+section.first { margin-top: 0; }
+.keep { break-inside: avoid; page-break-inside: avoid; }
 .caution { border: 1.6pt solid #000; padding: 2mm 3mm; margin: 3mm 0; break-inside: avoid; page-break-inside: avoid; }
 .caution h2 { border: none; margin: 0 0 1mm; font-size: 11pt; }
 .caution ul { margin: 0; padding-left: 5mm; }
 table { border-collapse: collapse; margin: 1mm 0 3mm; break-inside: avoid; page-break-inside: avoid; }
+table.long { break-inside: auto; page-break-inside: auto; }
+thead { display: table-header-group; }
+tr { break-inside: avoid; page-break-inside: avoid; }
+table.compare { width: 100%; table-layout: fixed; font-size: 8.5pt; }
+table.compare caption { text-align: left; caption-side: top; font-size: 10pt; }
+table.compare col.label { width: 64mm; }
+table.compare th, table.compare td { padding: 0.5mm 1.2mm; }
+table.compare td.n { white-space: normal; }
+table.compare td.words { text-align: left; }
 th, td { border: 0.5pt solid #888; padding: 0.6mm 1.6mm; text-align: left; vertical-align: top; }
 th { background: #eee; font-weight: 600; }
 td.n { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
@@ -99,18 +126,23 @@ table.kv th { width: 48mm; }
 figure { margin: 2mm 0 4mm; break-inside: avoid; page-break-inside: avoid; }
 figcaption { font-size: 8.5pt; color: #333; }
 svg.chart { max-width: 100%; height: auto; display: block; }
+figure svg { max-height: 120mm; }
 svg .ct { font-size: 11px; font-weight: 600; }
 svg .tk { font-size: 9px; }
 svg .ev { font-size: 8.5px; }
 @media print { body { padding: 0; max-width: none; } a { color: #000; text-decoration: none; } }
 `;
 
-function table(headers: readonly string[], rows: readonly (readonly string[])[], numeric: readonly boolean[] = []): string {
+/** Rows past which a table may run over a page (its header row repeated): about half an A4 page. */
+const LONG_TABLE_ROWS = 24;
+
+function table(headers: readonly string[], rows: readonly (readonly string[])[], numeric: readonly boolean[] = [], attrs = ''): string {
   const th = headers.map((h) => `<th>${esc(h)}</th>`).join('');
   const tr = rows
     .map((r) => `<tr>${r.map((c, j) => `<td${numeric[j] ? ' class="n"' : ''}>${esc(c)}</td>`).join('')}</tr>`)
     .join('');
-  return `<table><thead><tr>${th}</tr></thead><tbody>${tr}</tbody></table>`;
+  const long = rows.length > LONG_TABLE_ROWS ? ' class="long"' : '';
+  return `<table${long}${attrs}><thead><tr>${th}</tr></thead><tbody>${tr}</tbody></table>`;
 }
 
 function kv(pairs: readonly (readonly [string, string])[]): string {
@@ -178,7 +210,8 @@ function scenarioSection(d: ReportData, u: U): string {
   const s = d.scenario;
   const v = s.vehicle;
   const out: string[] = [];
-  out.push('<section id="scenario"><h2>The scenario</h2>');
+  out.push('<section id="scenario">');
+  out.push('<div class="keep"><h2>The scenario</h2>');
   out.push(`<p class="small">Units: ${esc(unitsLine(u))}; angles in degrees${s.units !== u ? ` (the scenario file is in ${s.units} units)` : ''}. Positions are behind the front axle, above level ground at ride height, and left of the centre line.</p>`);
   out.push('<h3>Vehicle</h3>');
   out.push(
@@ -193,7 +226,7 @@ function scenarioSection(d: ReportData, u: U): string {
       ['total CG height with payload', len(u, d.cgHeightM)],
     ]),
   );
-  out.push('<h3>Tyres and suspension</h3>');
+  out.push('</div><div class="keep"><h3>Tyres and suspension</h3>');
   const stiff = (x: number) => quantityText('stiffness', x, u).replace(` ${unitSymbol('stiffness', u)}`, '');
   const roll = (x: number) => quantityText('rollStiffness', x, u).replace(` ${unitSymbol('rollStiffness', u)}`, '');
   const axleRow = (name: string, a: typeof v.suspensionFront, t: typeof v.tyreFront) => [
@@ -226,7 +259,7 @@ function scenarioSection(d: ReportData, u: U): string {
       [false, false, true, true, true, true, true, true, true, true],
     ),
   );
-  out.push('<h3>Payload</h3>');
+  out.push('</div><div class="keep"><h3>Payload</h3>');
   out.push(
     v.payload.length === 0
       ? '<p>None.</p>'
@@ -237,7 +270,7 @@ function scenarioSection(d: ReportData, u: U): string {
         ),
   );
   const b = v.body;
-  out.push('<h3>Body outline</h3>');
+  out.push('</div><div class="keep"><h3>Body outline</h3>');
   out.push(
     kv([
       ['overhang front / rear', `${len(u, b.frontOverhangM)} / ${len(u, b.rearOverhangM)}`],
@@ -247,16 +280,14 @@ function scenarioSection(d: ReportData, u: U): string {
       ['roof height', len(u, b.roofHeightM)],
     ]),
   );
-  if (d.builds) {
-    out.push('<h3>Build options</h3>');
-    out.push(table(['build', 'modifications as modelled'], d.builds.map((r) => [r.name, buildChangesWords(r.changes, u)])));
-  }
-  out.push('<h3>Terrain</h3>');
+  if (d.builds) out.push('<p class="small">The builds compared, and how each modification is modelled: see the build comparison.</p>');
+  out.push('</div><div class="keep"><h3>Terrain</h3>');
   out.push(
     s.terrain.features.length === 0
       ? '<p>Level ground.</p>'
       : table(['#', 'feature', 'description'], s.terrain.features.map((f, i) => featureRow(u, f, i))),
   );
+  out.push('</div>');
   const p = s.path;
   out.push(
     kv([
@@ -266,7 +297,7 @@ function scenarioSection(d: ReportData, u: U): string {
       ['ground friction coefficient', fixed(s.friction, 2)],
     ]),
   );
-  if (s.notes) out.push(`<h3>Notes</h3><p>${esc(s.notes)}</p>`);
+  if (s.notes) out.push(keep('<h3>Notes</h3>', `<p>${esc(s.notes)}</p>`));
   out.push('</section>');
   return out.join('');
 }
@@ -291,12 +322,13 @@ function summarySection(d: ReportData, u: U, meta: ReportMeta): string {
   const s = d.scenario;
   const out: string[] = [];
   out.push('<section class="first" id="summary">');
-  out.push(`<h1>Stability report: ${esc(s.name)}</h1>`);
+  out.push(`<div class="keep"><h1>Stability report: ${esc(s.name)}</h1>`);
   out.push(
     `<p class="meta">Vehicle: <b>${esc(s.vehicle.name)}</b>${meta.fileName ? ` · scenario file ${esc(meta.fileName)}` : ''} · Plumbline ${esc(meta.toolVersion)} · ${esc(meta.dateText)}</p>`,
   );
   out.push(cautionBox('top'));
-  out.push('<h2>Headline</h2>');
+  out.push('</div>');
+  out.push('<div class="keep"><h2>Headline</h2>');
   const pose = d.pose;
   const pairs: [string, string][] = [
     ['Static Stability Factor T/(2h)', `${fixed(d.ssf, 3)} (mean track ${len(u, d.trackMeanM)}, CG height with payload ${len(u, d.cgHeightM)})`],
@@ -309,7 +341,8 @@ function summarySection(d: ReportData, u: U, meta: ReportMeta): string {
   }
   out.push(`<div class="headline">${kv(pairs)}</div>`);
   if (pose.standing) out.push(`<p class="small">${esc(OF_STATIC_NOTE)}</p>`);
-  out.push('<h3>Tilt table at the scenario pose: first wheel lift and tip</h3>');
+  out.push('</div>');
+  out.push('<div class="keep"><h3>Tilt table at the scenario pose: first wheel lift and tip</h3>');
   out.push(
     table(
       ['downhill', 'first wheel to lift (tilt from level)', 'tips at (tilt from level)', 'slides at (friction ' + fixed(s.friction, 2) + ')'],
@@ -317,7 +350,7 @@ function summarySection(d: ReportData, u: U, meta: ReportMeta): string {
     ),
   );
   out.push(
-    `<p class="small">Tilt-table sweep as in SAE J2180 and ISO 16333 (raise slowly, note the angle at which a wheel lifts and the angle of no equilibrium), from the scenario tilt${s.tilt.angleRad ? ` (${deg(s.tilt.angleRad)})` : ''}, on the scenario terrain, bracketed to 0.01° and shown to 0.1°. ${esc(TILT_DATUM_NOTE)}</p>`,
+    `<p class="small">Tilt-table sweep as in SAE J2180 and ISO 16333 (raise slowly, note the angle at which a wheel lifts and the angle of no equilibrium), from the scenario tilt${s.tilt.angleRad ? ` (${deg(s.tilt.angleRad)})` : ''}, on the scenario terrain, bracketed to 0.01° and shown to 0.1°. ${esc(TILT_DATUM_NOTE)}</p></div>`,
   );
   const maxA = d.rose.maxAngleRad;
   const weak = d.rose.weakest;
@@ -348,9 +381,9 @@ function passHeadline(d: ReportData, u: U): string {
     ],
     ['Smallest underbody gap', p.minClearance ? `${short(u, p.minClearance.clearanceM)} (${partWords(p.minClearance.part)}) at ${dist(u, p.minClearance.distanceM)}` : NO_VALUE],
   ];
-  return (
-    `<h3>Obstacle pass</h3><p class="headline" id="pass-headline">${esc(passHeadlineWords(p, u))}</p>${kv(pairs)}` +
-    `<p class="small">Distances along the path from its start, in ${unitSymbol('distance', u)}.</p>`
+  return keep(
+    `<h3>Obstacle pass</h3><p class="headline" id="pass-headline">${esc(passHeadlineWords(p, u))}</p>${kv(pairs)}`,
+    `<p class="small">Distances along the path from its start, in ${unitSymbol('distance', u)}.</p>`,
   );
 }
 
@@ -375,9 +408,9 @@ function roseSection(d: ReportData): string {
   );
   const step = r.directions.length > 1 ? r.directions[1].downhillRad - r.directions[0].downhillRad : 2 * Math.PI;
   return (
-    '<section id="rose"><h2>Stability rose</h2>' +
+    '<section id="rose"><div class="keep"><h2>Stability rose</h2>' +
     `<p>A tilt-table sweep for each downhill direction every ${directionText(step)}, the vehicle on a level tilt table (as the rose command by default: a property of the build, not of the site). The radius is the table's tilt from level: solid, the angle of no equilibrium (tip); dashed, the first wheel lift. The dashed black ring is the ${COMMON_PRACTICE_MAX_SLOPE_DEG}° operating line of common practice. A direction with no tip up to 89° is drawn at the outer ring.</p>` +
-    `<ul class="spare" id="slope-to-spare">${spareLines(spareFromRose(r)).map((l) => `<li>${esc(l)}</li>`).join('')}</ul>` +
+    `<ul class="spare" id="slope-to-spare">${spareLines(spareFromRose(r)).map((l) => `<li>${esc(l)}</li>`).join('')}</ul></div>` +
     `<figure>${chart}<figcaption>Weakest: tips at ${r.weakest.tip ? deg(r.weakest.tip.angleRad) : 'no tip up to 89°'} from level with downhill ${directionText(r.weakest.downhillRad)}; earliest lift ${r.weakestLift.firstLift ? `${r.weakestLift.firstLift.wheel} at ${deg(r.weakestLift.firstLift.angleRad)} from level with downhill ${directionText(r.weakestLift.downhillRad)}` : 'none before the tip'}.</figcaption></figure>` +
     '</section>'
   );
@@ -430,12 +463,19 @@ function passSection(d: ReportData, u: U): string {
     e.endDistanceM === null ? (e.kind === 'tip' ? NO_VALUE : 'to the end') : dist(u, e.endDistanceM).replace(` ${du}`, ''),
   ]);
   return (
-    '<section id="pass"><h2>Obstacle pass</h2>' +
-    '<p>The vehicle crawls along the scenario path so slowly that each station is a standing pose, each solved from the last. Shaded: a wheel lifted or the underbody touching. Dashed lines: the first light wheel, the first lift, the least margin and the tip.</p>' +
-    passHeadline(d, u) +
+    '<section id="pass">' +
+    keep(
+      '<h2>Obstacle pass</h2>',
+      '<p>The vehicle crawls along the scenario path so slowly that each station is a standing pose, each solved from the last. Shaded: a wheel lifted or the underbody touching. Dashed lines: the first light wheel, the first lift, the least margin and the tip.</p>',
+      passHeadline(d, u),
+    ) +
     `<figure>${loadChart}</figure><figure>${faChart}</figure><figure>${enChart}</figure>` +
-    '<h3>Events</h3>' +
-    (evRows.length === 0 ? '<p>None.</p>' : table(['event', `from (${du})`, `to (${du})`], evRows, [false, true, true])) +
+    // The heading with the table's first rows (a long table runs on, its header repeated).
+    (evRows.length === 0
+      ? keep('<h3>Events</h3>', '<p>None.</p>')
+      : evRows.length > LONG_TABLE_ROWS
+        ? `<h3>Events</h3>${table(['event', `from (${du})`, `to (${du})`], evRows, [false, true, true])}`
+        : keep('<h3>Events</h3>', table(['event', `from (${du})`, `to (${du})`], evRows, [false, true, true]))) +
     '</section>'
   );
 }
@@ -465,16 +505,19 @@ function drawingSection(d: ReportData, u: U): string {
     ];
   });
   return (
-    '<section id="drawing"><h2>The vehicle at the key station</h2>' +
-    `<p>Orthographic line drawing from the solved pose at ${esc(where)}: the body outline (a box with a flat belly, as given in the scenario), the wheels at their solved centres, the CG and the plumb line from it along gravity, and the ground under the vehicle.</p>` +
-    `<figure>${svg}</figure>` +
+    '<section id="drawing">' +
+    keep(
+      '<h2>The vehicle at the key station</h2>',
+      `<p>Orthographic line drawing from the solved pose at ${esc(where)}: the body outline (a box with a flat belly, as given in the scenario), the wheels at their solved centres, the CG and the plumb line from it along gravity, and the ground under the vehicle.</p>`,
+      `<figure>${svg}</figure>`,
+    ) +
     table(['wheel', `normal load (${unitSymbol('force', u)})`, 'of static (%)', 'travel (+ bump)', 'travel used (%)', ''], rows, [false, true, true, true, true, false]) +
     `<p class="small">${esc(OF_STATIC_NOTE)} Body roll / pitch from level: ${deg(r.body.rollToLevelRad)} / ${deg(r.body.pitchToLevelRad)}; force-angle margin ${deg(r.margins.forceAngleRad)}; energy margin (CG rise to tip) ${short(u, r.margins.energyM)}.</p>` +
     '</section>'
   );
 }
 
-function buildsSection(rows: readonly BuildRow[], u: U): string {
+function buildsSection(d: ReportData, rows: readonly BuildRow[], u: U): string {
   const headers = ['', ...rows.map((r, i) => (i === 0 ? `${r.name} (reference)` : r.name))];
   const body = BUILD_METRICS.map((m) => {
     const unit = metricUnit(m.kind, u);
@@ -483,11 +526,27 @@ function buildsSection(rows: readonly BuildRow[], u: U): string {
       ...rows.map((r, i) => (i === 0 ? metricValue(m.kind, r.metrics[m.key], u) : `${metricValue(m.kind, r.metrics[m.key], u)} (${metricValue(m.kind, r.change[m.key], u, true)})`)),
     ];
   });
+  const th = headers.map((h) => `<th>${esc(h)}</th>`).join('');
+  const tr = body.map((r) => `<tr>${r.map((c, j) => `<td${j > 0 ? ' class="n"' : ''}>${esc(c)}</td>`).join('')}</tr>`).join('');
+  // The hang-up column: how each build's pass ends, in words (where, on what).
+  const ends = rows[0].passEnd
+    ? `<tr id="builds-pass-end"><td>${esc(PASS_END_LABEL)}</td>${rows.map((r) => `<td class="words">${esc(passEndWords(r.passEnd, u))}</td>`).join('')}</tr>`
+    : '';
+  const path = d.scenario.path;
+  // The title and its lead-in are the table's caption: part of the table's box, so they print on the
+  // page where the table starts (a kept box taller than what is left of a page would be split).
+  const caption =
+    `<caption><h2>Build comparison: ${esc(d.scenario.vehicle.name)}, ${rows.length} configurations</h2>` +
+    `<p>Each build on a level tilt table (lift and tip each way, and the rose)${path ? ' and on the scenario path (the pass: where it goes light, lifts a wheel, hangs up, slips or tips)' : ''}. Changes from the reference build in brackets.</p></caption>`;
+  const compare = `<table class="compare" id="builds-table">${caption}<colgroup><col class="label">${rows.map(() => '<col>').join('')}</colgroup><thead><tr>${th}</tr></thead><tbody>${tr}${ends}</tbody></table>`;
   return (
-    '<section id="builds"><h2>Build comparison</h2>' +
-    '<p>Each build on a level tilt table (lift and tip each way, and the rose) and on the scenario path (pass). Changes from the reference build in brackets. How each modification is modelled is listed under the scenario.</p>' +
-    table(headers, body, [false, ...rows.map(() => true)]) +
+    '<section id="builds">' +
+    compare +
     `<p class="small">${esc(METRICS_NOTE)}</p>` +
+    keep(
+      '<h3>The builds as modelled</h3>',
+      table(['build', 'modifications as modelled'], rows.map((r) => [r.name, buildChangesWords(r.changes, u)])),
+    ) +
     '</section>'
   );
 }
@@ -505,10 +564,10 @@ function bandSection(d: ReportData, u: U): string {
     return [label, `${deg(x.liftRad[0])} to ${deg(x.liftRad[1])}`, `${deg(x.tipRad[0])} to ${deg(x.tipRad[1])}`];
   });
   return (
-    '<section id="cg-band"><h2>CG height band</h2>' +
+    '<section id="cg-band"><div class="keep"><h2>CG height band</h2>' +
     `<p>The CG height as weighed is known to ± ${len(u, b.toleranceM)}: from ${len(u, b.heightsM[1])} to ${len(u, b.heightsM[0])}. Lift and tip angles (tilt from level) on a level tilt table at the high and the low end of that band (high CG first). Measure the CG height by raising one axle (SAE J874 / ISO 10392 practice) to narrow it; labs measuring the same vehicle have disagreed significantly (UMTRI round-robin, SAE 920050).</p>` +
     table(['downhill', 'first lift (high CG to low CG)', 'tip (high CG to low CG)'], rows) +
-    '</section>'
+    '</div></section>'
   );
 }
 
@@ -548,8 +607,9 @@ function methodsSection(meta: ReportMeta): string {
     ],
   ];
   return (
-    '<section id="methods"><h2>Methods and their limits</h2>' +
-    kv(items) +
+    '<section id="methods">' +
+    keep('<h2>Methods and their limits</h2>', kv(items.slice(0, 2))) +
+    kv(items.slice(2)) +
     `<p class="small">Produced by Plumbline ${esc(meta.toolVersion)} on ${esc(meta.dateText)}. Every number in this report comes from the scenario as given: a wrong mass, CG or stiffness gives wrong results.</p>` +
     cautionBox('bottom') +
     '</section>'
@@ -559,6 +619,8 @@ function methodsSection(meta: ReportMeta): string {
 /** The report for collected results: one HTML document as a string. */
 export function renderReportHtml(d: ReportData, meta: ReportMeta): string {
   const u: U = meta.units ?? d.scenario.units;
+  // The results first (headline, the comparison a shop hands over, rose, pass, drawing), then the
+  // inputs they come from, the CG band and the methods.
   const parts: string[] = [
     '<!DOCTYPE html>',
     '<html lang="en"><head><meta charset="utf-8">',
@@ -567,13 +629,13 @@ export function renderReportHtml(d: ReportData, meta: ReportMeta): string {
     `<style>${CSS}</style>`,
     '</head><body>',
     summarySection(d, u, meta),
-    scenarioSection(d, u),
-    roseSection(d),
   ];
-  if (meta.sceneImageDataUrl && SCENE_IMAGE_URL.test(meta.sceneImageDataUrl)) parts.push(sceneImageSection(meta.sceneImageDataUrl));
+  if (d.builds) parts.push(buildsSection(d, d.builds, u));
+  parts.push(roseSection(d));
   if (d.pass) parts.push(passSection(d, u));
   parts.push(drawingSection(d, u));
-  if (d.builds) parts.push(buildsSection(d.builds, u));
+  if (meta.sceneImageDataUrl && SCENE_IMAGE_URL.test(meta.sceneImageDataUrl)) parts.push(sceneImageSection(meta.sceneImageDataUrl));
+  parts.push(scenarioSection(d, u));
   if (d.cgBand) parts.push(bandSection(d, u));
   parts.push(methodsSection(meta));
   parts.push('</body></html>');

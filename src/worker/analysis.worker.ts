@@ -51,6 +51,7 @@ function handle(req: WorkerRequest): void {
         terrain: s.terrain,
         path: s.path,
         friction: s.friction,
+        tilt: passOptionsOf(s).tilt,
         roseStepRad: 5 * RAD_PER_DEG,
         onProgress: (d, t) => progress(d, t),
       });

@@ -1,6 +1,6 @@
 /**
  * `npm test` installs the OS packages it needs (scripts/ensure-os-packages.sh): with every tool present it
- * does nothing; with tools missing it installs Debian's chromium and gdal-bin when it may (root or
+ * does nothing; with tools missing it installs Debian's chromium, gdal-bin and poppler-utils when it may (root or
  * password-less sudo), and otherwise stops with a message naming the packages. The install itself is
  * not run here (PLUMBLINE_OS_DRY_RUN): the script reports the command it would run.
  */
@@ -36,7 +36,7 @@ function emptyBin(): string {
 
 function fullBin(fillnodata: string): string {
   const d = emptyBin();
-  for (const t of ['chromium', 'gdalinfo', 'gdal_grid', 'gdaldem', 'gdallocationinfo', fillnodata]) {
+  for (const t of ['chromium', 'gdalinfo', 'gdal_grid', 'gdaldem', 'gdallocationinfo', fillnodata, 'pdftotext']) {
     writeFileSync(join(d, t), '#!/bin/sh\n');
     chmodSync(join(d, t), 0o755);
   }
@@ -59,11 +59,11 @@ describe('scripts/ensure-os-packages.sh', () => {
     }
   });
 
-  it.skipIf(!isRoot)('names what is missing and, as root, runs apt-get update and install of chromium gdal-bin', () => {
+  it.skipIf(!isRoot)('names what is missing and, as root, runs apt-get update and install of chromium gdal-bin poppler-utils', () => {
     const r = run({ PLUMBLINE_OS_BIN: emptyBin(), PLUMBLINE_OS_DRY_RUN: '1' });
     expect(r.status).toBe(0);
-    expect(r.err).toContain('missing chromium gdalinfo gdal_grid gdaldem gdallocationinfo gdal_fillnodata');
-    expect(r.err).toContain('would run: apt-get update && apt-get install -y chromium gdal-bin');
+    expect(r.err).toContain('missing chromium gdalinfo gdal_grid gdaldem gdallocationinfo gdal_fillnodata pdftotext');
+    expect(r.err).toContain('would run: apt-get update && apt-get install -y chromium gdal-bin poppler-utils');
   });
 
   // Needs root to switch to an unprivileged user.
@@ -71,7 +71,7 @@ describe('scripts/ensure-os-packages.sh', () => {
     const r = run({ PLUMBLINE_OS_BIN: emptyBin() }, true);
     expect(r.status).toBe(1);
     expect(r.err).toContain('missing chromium');
-    expect(r.err).toContain('sudo apt-get update && sudo apt-get install -y chromium gdal-bin');
+    expect(r.err).toContain('sudo apt-get update && sudo apt-get install -y chromium gdal-bin poppler-utils');
   });
 
   it('.ci/run installs nothing itself: only npm ci and npm test', () => {

@@ -15,6 +15,7 @@ import {
   vehicleDrawing,
   type ReportData,
 } from '../../src/report/index';
+import { PASS_END_LABEL, passEndWords } from '../../src/present/index';
 
 function load(file: string): Scenario {
   const r = parseScenarioText(readFileSync(file, 'utf8'));
@@ -82,10 +83,19 @@ describe('report content', () => {
     expect(html).toContain('known to ± 0.050 m: from 0.730 m to 0.830 m');
   });
 
-  it('prints: page margins, each section on a new page, figures kept whole', () => {
+  it('prints: page margins, no forced page break, headings kept with what follows, figures and tables kept whole', () => {
+    // How it lays out on paper is measured in tests/e2e/reportPrint.test.ts (Chromium's PDF, read back by pdftotext).
     expect(html).toContain('@page');
-    expect(html).toMatch(/section \{ break-before: page; page-break-before: always; \}/);
+    expect(html).not.toMatch(/break-before: page|page-break-before: always/);
+    expect(html).toMatch(/h1, h2, h3 \{ break-after: avoid; page-break-after: avoid; \}/);
+    expect(html).toMatch(/\.keep \{ break-inside: avoid/);
     expect(html).toMatch(/figure \{[^}]*break-inside: avoid/);
+    expect(html).toMatch(/table \{[^}]*break-inside: avoid/);
+    // Every h2 opens a kept box with the block after it, or is a table's caption (the comparison), or the caution's.
+    const h2s = html.match(/<h2>/g)?.length ?? 0;
+    const kept = html.match(/<div class="keep"><h2>|<caption><h2>|class="caution" id="caution-\w+"><h2>/g)?.length ?? 0;
+    expect(h2s).toBeGreaterThan(4);
+    expect(kept).toBe(h2s);
   });
 
   it('is self-contained: no address of any kind, no script', () => {
@@ -140,5 +150,15 @@ describe('report with builds', () => {
     const last = d.builds![d.builds!.length - 1].metrics.leftDownTipRad!;
     expect(last).toBeLessThan(ref);
     expect(d.builds![d.builds!.length - 1].change.leftDownTipRad).toBeCloseTo(last - ref, 12);
-  });
+    // Its own section under its own title, right after the headline; the hang-up row says how each build's pass ends.
+    expect(h).toMatch(/<section id="builds"><table class="compare" id="builds-table"><caption><h2>Build comparison: [^<]+, 3 configurations<\/h2>/);
+    expect(h.indexOf('id="builds"')).toBeGreaterThan(h.indexOf('id="summary"'));
+    expect(h.indexOf('id="builds"')).toBeLessThan(h.indexOf('id="rose"'));
+    expect(h).toContain(esc(PASS_END_LABEL));
+    for (const r of d.builds!) {
+      expect(r.passEnd).not.toBeNull();
+      expect(h).toContain(`<td class="words">${esc(passEndWords(r.passEnd, 'metric'))}</td>`);
+    }
+    // Three builds, each a 72-direction rose and a pass: minutes on a shared two-core machine.
+  }, 300_000);
 });

@@ -3,8 +3,8 @@ import { MAX_BUILDS, type BuildRow, type Scenario } from '../../core';
 import buildsDemo from '../../../assets/scenarios/side-hill-builds.json';
 import { runJob } from '../../worker/client';
 import type { ReplyOf } from '../../worker/messages';
-import { BUILD_METRICS, METRICS_NOTE, changeSense, metricUnit, metricValue } from '../../present/metrics';
-import { QUASI_STATIC_CAUTION, buildChangesWords } from '../../present/words';
+import { BUILD_METRICS, METRICS_NOTE, PASS_END_LABEL, changeSense, metricUnit, metricValue } from '../../present/metrics';
+import { QUASI_STATIC_CAUTION, buildChangesWords, passEndWords } from '../../present/words';
 import { useWorkerJob } from './useWorkerJob';
 import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../../store/react';
 import { BuildsForm } from './BuildsForm';
@@ -123,6 +123,19 @@ export function ComparePanel() {
                     </tr>
                   ))}
                 </tbody>
+                {/* How each build's pass ends (words, not a number to subtract): a footer row under the numbers. */}
+                {rows.some((r) => r.passEnd) ? (
+                  <tfoot>
+                    <tr data-testid="compare-row-passEnd">
+                      <th scope="row">{PASS_END_LABEL.charAt(0).toUpperCase() + PASS_END_LABEL.slice(1)}</th>
+                      {rows.map((r, i) => (
+                        <td key={r.name} className="words" style={{ whiteSpace: 'normal', textAlign: 'left', minWidth: 120 }} data-testid={`compare-passEnd-${i}`} data-outcome={r.passEnd?.outcome.kind ?? ''}>
+                          {passEndWords(r.passEnd, units)}
+                        </td>
+                      ))}
+                    </tr>
+                  </tfoot>
+                ) : null}
               </table>
             </div>
             <p className="fineprint">

@@ -4,6 +4,7 @@ import {
   MAX_BUILDS,
   applyBuild,
   compareVehicles,
+  passOptionsOf,
   toSI,
   type AppliedBuild,
   type BuildRow,
@@ -14,14 +15,43 @@ import { EXIT_BAD_INPUT, EXIT_OK, type CommandSpec } from '../command';
 import { UNITS_OPTION, formatTable, outputUnits } from '../format';
 import { loadScenarioFile, toJsonText } from '../load';
 import { deg, formatCsv, progressReporter, round } from '../analysisOutput';
-import { BUILD_METRICS, METRICS_NOTE, metricJsonKey, metricUnit, metricValue } from '../../present/metrics';
+import { BUILD_METRICS, METRICS_NOTE, PASS_END_LABEL, metricJsonKey, metricUnit, metricValue } from '../../present/metrics';
 import { RAD_PER_DEG, angleText, lengthText, valueText } from '../../present/units';
-import { QUASI_STATIC_CAUTION, buildChangeWords } from '../../present/words';
+import { QUASI_STATIC_CAUTION, buildChangeWords, passEndWords } from '../../present/words';
 
 /** JSON value of one metric: degrees for angles, metres for lengths; key carries the unit. */
 const jsonKey = metricJsonKey;
 function jsonValue(name: MetricName, v: number | null): number | null {
   return name.endsWith('Rad') ? deg(v) : round(v, 5);
+}
+
+/**
+ * How a build's pass ends, for JSON and CSV: the outcome (tips, hangs-up, slides, stands), where
+ * (m along the path), on what (the underbody part for a hang-up, the wheel for a slide) and the
+ * first slide when it came before; null without a path.
+ */
+export function passEndJson(r: BuildRow): {
+  outcome: string;
+  atM: number | null;
+  on: string | null;
+  depthM: number | null;
+  frictionDemand: number | null;
+  firstSlide: { wheel: string; atM: number; frictionDemand: number } | null;
+} | null {
+  const e = r.passEnd;
+  if (!e) return null;
+  const o = e.outcome;
+  const slide = e.firstSlide ? { wheel: e.firstSlide.wheel, atM: e.firstSlide.distanceM, frictionDemand: e.firstSlide.frictionDemand } : null;
+  switch (o.kind) {
+    case 'tips':
+      return { outcome: o.kind, atM: o.distanceM, on: null, depthM: null, frictionDemand: null, firstSlide: slide };
+    case 'hangs-up':
+      return { outcome: o.kind, atM: o.distanceM, on: o.part, depthM: o.depthM, frictionDemand: null, firstSlide: slide };
+    case 'slides':
+      return { outcome: o.kind, atM: o.distanceM, on: o.wheel, depthM: null, frictionDemand: o.frictionDemand, firstSlide: slide };
+    default:
+      return { outcome: o.kind, atM: null, on: null, depthM: null, frictionDemand: null, firstSlide: slide };
+  }
 }
 
 export function compareJson(rows: readonly BuildRow[]): object {
@@ -34,6 +64,7 @@ export function compareJson(rows: readonly BuildRow[]): object {
       changeFromFirst: Object.fromEntries(BUILD_METRICS.map(({ key: k }) => [jsonKey(k), jsonValue(k, r.change[k])])),
       passFirstUnloadWheel: r.passFirstUnloadWheel,
       passFirstLiftWheel: r.passFirstLiftWheel,
+      passEnd: passEndJson(r),
       cgBand: r.band
         ? {
             toleranceM: r.band.toleranceM,
@@ -108,6 +139,7 @@ export const compareCommand: CommandSpec = {
       terrain: first.terrain,
       path: first.path,
       friction: first.friction,
+      tilt: passOptionsOf(first).tilt,
       roseStepRad: roseStep * RAD_PER_DEG,
       cgToleranceM: tol === undefined ? undefined : toSI('length', tol as number, first.units),
       onProgress: progressReporter(io, 'compare', !args.options.quiet, 1),
@@ -118,7 +150,12 @@ export const compareCommand: CommandSpec = {
     }
     if (args.options.csv) {
       const out: (string | number | null)[][] = [];
-      for (const r of rows) for (const { key: k } of BUILD_METRICS) out.push([r.name, jsonKey(k), jsonValue(k, r.metrics[k]), jsonValue(k, r.change[k])]);
+      for (const r of rows) {
+        for (const { key: k } of BUILD_METRICS) out.push([r.name, jsonKey(k), jsonValue(k, r.metrics[k]), jsonValue(k, r.change[k])]);
+        // How the pass ends: its outcome, where (m) and on what (underbody part or wheel); no change column (not numbers to subtract, or only with the outcome).
+        const e = passEndJson(r);
+        if (e) out.push([r.name, 'passEnd', e.outcome, null], [r.name, 'passEndAtM', e.atM, null], [r.name, 'passEndOn', e.on, null]);
+      }
       io.out(formatCsv(['build', 'metric', 'value', 'change_from_first'], out));
       return EXIT_OK;
     }
@@ -138,6 +175,11 @@ export const compareCommand: CommandSpec = {
         ]),
       ),
     );
+    // The hang-up column in words: too wide for the table, so one line per build under it.
+    if (rows.some((r) => r.passEnd)) {
+      io.out(`${PASS_END_LABEL}:`);
+      rows.forEach((r, i) => io.out(`  [${i + 1}] ${passEndWords(r.passEnd, u)}`));
+    }
     io.out(METRICS_NOTE);
     io.out('');
     rows.forEach((r, i) => {

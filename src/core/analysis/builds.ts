@@ -26,10 +26,10 @@
  * - Anti-roll bars: disconnected (0) or a new stiffness.
  * - Travel: new bump and droop from ride height (longer shocks, bump stops).
  */
-import type { AxleSuspension, PathSpec, PayloadItem, Pose, Terrain, Vehicle, WheelName } from '../model/types';
+import type { AxleSuspension, PathSpec, PayloadItem, Pose, Terrain, Tilt, Vehicle, WheelName } from '../model/types';
 import { buildModel } from '../solver/equilibrium';
 import { M_PER_IN } from '../scenario/units';
-import { runPass } from './pass';
+import { passOutcome, runPass, type PassOutcome, type PassResult } from './pass';
 import { CARDINALS, cardinalLimits, stabilityRose, tipAngleOf, liftAngleOf, type CardinalLimits, type CardinalName } from './rose';
 
 /** Overall wheel width over the rim width (common practice: 1 in, for the bead flanges). */
@@ -294,6 +294,12 @@ export interface BuildRow {
   readonly cardinals: CardinalLimits;
   readonly passFirstUnloadWheel: WheelName | null;
   readonly passFirstLiftWheel: WheelName | null;
+  /**
+   * How the build's pass ends (passOutcome: tips, hangs up on a part of the underbody, slides, or
+   * stands all along), and the first slide (it may come before a hang-up, which then leads); null
+   * without a path.
+   */
+  readonly passEnd: { readonly outcome: PassOutcome; readonly firstSlide: PassResult['firstSlide'] } | null;
   /** Lift and tip bands from the CG-height tolerance, when one was given. */
   readonly band: CgBand | null;
 }
@@ -304,6 +310,8 @@ export interface CompareOptions {
   readonly path?: PathSpec | null;
   readonly friction?: number;
   readonly lightShare?: number;
+  /** Tilt-table setting for the pass (the scenario's tilt, as the pass command runs it). @default none */
+  readonly tilt?: Tilt;
   /** Rose direction spacing (rad). @default 5° */
   readonly roseStepRad?: number;
   /** CG-height tolerance (m) for the lift and tip bands. @default none */
@@ -339,7 +347,7 @@ export function compareVehicles(applied: readonly AppliedBuild[], opts: CompareO
     const tipA = (n: CardinalName) => card(n).tip?.angleRad ?? null;
     let pass: ReturnType<typeof runPass> | null = null;
     if (opts.path && opts.terrain) {
-      pass = runPass(buildModel(v, opts.terrain), opts.path, { friction: opts.friction, lightShare: opts.lightShare });
+      pass = runPass(buildModel(v, opts.terrain), opts.path, { friction: opts.friction, lightShare: opts.lightShare, tilt: opts.tilt });
     }
     const metrics: BuildMetrics = {
       ssf: staticStabilityFactor(v),
@@ -370,6 +378,7 @@ export function compareVehicles(applied: readonly AppliedBuild[], opts: CompareO
       cardinals,
       passFirstUnloadWheel: pass?.firstUnload?.wheel ?? null,
       passFirstLiftWheel: pass?.firstLift?.wheel ?? null,
+      passEnd: pass ? { outcome: passOutcome(pass), firstSlide: pass.firstSlide } : null,
       band: opts.cgToleranceM ? cgBand(v, opts.cgToleranceM, { friction: opts.friction }) : null,
     });
     opts.onProgress?.(i + 1, applied.length);
