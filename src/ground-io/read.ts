@@ -8,14 +8,15 @@ import { fail, reason } from './bytes';
 import { readAsc } from './asc';
 import { readGeoTiff } from './geotiff';
 import { readGltf } from './gltf';
-import { readLas } from './las';
+import { isCompressedLas, readLas } from './las';
+import { readLaz } from './laz';
 import { readObj } from './obj';
 import { readPly } from './ply';
 import { readXyz } from './xyz';
 
 export type GroundFormat = 'geotiff' | 'asc' | 'ply' | 'obj' | 'gltf' | 'xyz' | 'las';
 
-export const FORMAT_LIST = 'GeoTIFF (.tif), ESRI ASCII grid (.asc), PLY, OBJ, GLB/glTF, LAS (.las), XYZ/CSV points';
+export const FORMAT_LIST = 'GeoTIFF (.tif), ESRI ASCII grid (.asc), PLY, OBJ, GLB/glTF, LAS (.las), LAZ (.laz), XYZ/CSV points';
 
 export function detectFormat(file: string, head: Uint8Array): GroundFormat {
   const ext = /\.([A-Za-z0-9]+)$/.exec(file)?.[1].toLowerCase() ?? '';
@@ -40,6 +41,8 @@ export interface ReadOptions {
   readonly crop?: readonly [number, number, number, number] | null;
   /** Reads a file a glTF refers to. */
   readonly resolve?: (uri: string) => Uint8Array;
+  /** Where the LAZ decoder's WebAssembly is served (the app's worker); Node finds it in the package. */
+  readonly lazWasmUrl?: string;
   /** Progress of a large raster's decoding (rows done of all). */
   readonly onProgress?: (done: number, total: number) => void;
 }
@@ -69,7 +72,8 @@ export async function readGroundBytes(bytes: Uint8Array, file: string, opts: Rea
     case 'gltf':
       return readGltf(bytes, file, opts.resolve);
     case 'las':
-      return readLas(bytes, file);
+      // LAS or LAZ by the content (the compression bit of the point format byte), not the name.
+      return isCompressedLas(bytes) ? readLaz(bytes, file, { wasmUrl: opts.lazWasmUrl }) : readLas(bytes, file);
     case 'xyz':
       return readXyz(bytes, file);
   }

