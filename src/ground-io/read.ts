@@ -14,14 +14,14 @@ import { readObj } from './obj';
 import { readPly } from './ply';
 import { readXyz } from './xyz';
 
-export type GroundFormat = 'geotiff' | 'asc' | 'ply' | 'obj' | 'gltf' | 'xyz' | 'las';
+export type GroundFormat = 'geotiff' | 'asc' | 'ply' | 'obj' | 'gltf' | 'usdz' | 'xyz' | 'las';
 
-export const FORMAT_LIST = 'GeoTIFF (.tif), ESRI ASCII grid (.asc), PLY, OBJ, GLB/glTF, LAS (.las), LAZ (.laz), XYZ/CSV points';
+export const FORMAT_LIST = 'GeoTIFF (.tif), ESRI ASCII grid (.asc), PLY, OBJ, GLB/glTF, USDZ, LAS (.las), LAZ (.laz), XYZ/CSV points';
 
 export function detectFormat(file: string, head: Uint8Array): GroundFormat {
   const ext = /\.([A-Za-z0-9]+)$/.exec(file)?.[1].toLowerCase() ?? '';
   const byExt: Record<string, GroundFormat> = {
-    tif: 'geotiff', tiff: 'geotiff', asc: 'asc', ply: 'ply', obj: 'obj', glb: 'gltf', gltf: 'gltf', las: 'las', laz: 'las',
+    tif: 'geotiff', tiff: 'geotiff', asc: 'asc', ply: 'ply', obj: 'obj', glb: 'gltf', gltf: 'gltf', usdz: 'usdz', las: 'las', laz: 'las',
     xyz: 'xyz', csv: 'xyz', txt: 'xyz', pts: 'xyz',
   };
   if (byExt[ext]) return byExt[ext];
@@ -71,6 +71,11 @@ export async function readGroundBytes(bytes: Uint8Array, file: string, opts: Rea
       return readObj(bytes, file);
     case 'gltf':
       return readGltf(bytes, file, opts.resolve);
+    case 'usdz': {
+      // three and its USD loader load only when a USDZ arrives (a chunk of their own in the app's worker).
+      const { readUsdz } = await import('./usdz');
+      return readUsdz(bytes, file);
+    }
     case 'las':
       // LAS or LAZ by the content (the compression bit of the point format byte), not the name.
       return isCompressedLas(bytes) ? readLaz(bytes, file, { wasmUrl: opts.lazWasmUrl }) : readLas(bytes, file);

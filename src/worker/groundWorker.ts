@@ -1,7 +1,7 @@
 /// <reference lib="webworker" />
 /**
  * Ground import off the main thread: reads the dropped file's bytes (GeoTIFF, .asc, PLY, OBJ,
- * GLB/glTF, LAS, LAZ, XYZ), runs the pipeline and hands back the grid (its arrays transferred, not
+ * GLB/glTF, USDZ, LAS, LAZ, XYZ), runs the pipeline and hands back the grid (its arrays transferred, not
  * copied) and the summary. Progress after each step; cancel = the app terminates this worker.
  */
 import { buildGround, GROUND_STEP_COUNT, GroundError, type GroundSettings, type GroundSummary } from '../core/ground/index';
