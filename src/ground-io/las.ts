@@ -24,6 +24,9 @@ export interface LasHeader {
   readonly offsetToPoints: number;
   readonly scale: readonly [number, number, number];
   readonly offset: readonly [number, number, number];
+  /** The header's extent of the points (§2.4: max and min X, Y, Z), as stated. */
+  readonly min: readonly [number, number, number];
+  readonly max: readonly [number, number, number];
   readonly crs: string | null;
   readonly unitM: number | null;
   readonly verticalUnitM: number | null;
@@ -129,13 +132,15 @@ export function readLasHeader(bytes: Uint8Array, file: string): LasHeader {
     off = body + len;
   }
   if (geographic) crs = crs ?? 'geographic';
-  return { versionMajor: vMaj, versionMinor: vMin, pointFormat, recordLength, pointCount: count, offsetToPoints, scale, offset, crs, unitM, verticalUnitM, geographic, compressed, laszipVlr };
+  const max = [dv.getFloat64(179, true), dv.getFloat64(195, true), dv.getFloat64(211, true)] as const;
+  const min = [dv.getFloat64(187, true), dv.getFloat64(203, true), dv.getFloat64(219, true)] as const;
+  return { versionMajor: vMaj, versionMinor: vMin, pointFormat, recordLength, pointCount: count, offsetToPoints, scale, offset, min, max, crs, unitM, verticalUnitM, geographic, compressed, laszipVlr };
 }
 
 /** The checks every LAS or LAZ file meets before its points are read. */
 export function checkLasPoints(h: LasHeader, file: string): void {
   if (h.geographic) fail(file, `the points are in a geographic CRS (${h.crs}: degrees of latitude and longitude); reproject them to a projected CRS in metres or feet first`);
-  if (h.pointCount < 3) fail(file, `holds ${h.pointCount} points; at least 3 are needed`);
+  if (h.pointCount < 3) fail(file, `holds ${h.pointCount} point${h.pointCount === 1 ? '' : 's'}; at least 3 are needed`);
 }
 
 export function readLas(bytes: Uint8Array, file: string): RawGround {

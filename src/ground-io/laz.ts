@@ -100,6 +100,9 @@ export function checkLazLayout(bytes: Uint8Array, h: LasHeader, file: string): L
   if (chunkSize !== null && n > chunks * chunkSize) {
     fail(file, `the header claims ${n.toLocaleString('en-US')} points, but the chunk table holds ${chunks.toLocaleString('en-US')} chunk${chunks === 1 ? '' : 's'} of at most ${chunkSize.toLocaleString('en-US')} points`);
   }
+  if (chunkSize !== null && n <= (chunks - 1) * chunkSize) {
+    fail(file, `the header claims ${n.toLocaleString('en-US')} points, but the chunk table holds ${chunks.toLocaleString('en-US')} chunks of ${chunkSize.toLocaleString('en-US')} points: more than that many points need`);
+  }
   // Every chunk starts with one whole point record stored as is (LASzip's first point of a chunk).
   if (chunks * h.recordLength > tableAt - start - 8) {
     fail(file, `truncated or damaged: ${chunks.toLocaleString('en-US')} chunks cannot fit in the ${(tableAt - start - 8).toLocaleString('en-US')} bytes of compressed points`);
@@ -162,10 +165,35 @@ export interface LazOptions {
   readonly wasmUrl?: string;
 }
 
+/**
+ * LASzip carries no checksum: a header that claims more points than were compressed, or damaged
+ * bytes, can decode without an error into wrong points. The header's extent (LAS 1.4 R15 §2.4: the
+ * actual max and min of the points) catches most of them: a point beyond it by more than 1 % of the
+ * extent (and one scale step) is refused. Skipped when the header states no extent (max < min, or all 0).
+ */
+function checkExtent(h: LasHeader, records: Uint8Array, file: string): void {
+  const [sx, sy, sz] = h.scale;
+  const [ox, oy, oz] = h.offset;
+  const stated = [0, 1, 2].every((k) => Number.isFinite(h.min[k]) && Number.isFinite(h.max[k]) && h.max[k] >= h.min[k]) && [0, 1, 2].some((k) => h.max[k] !== 0 || h.min[k] !== 0);
+  if (!stated) return;
+  const tol = [0, 1, 2].map((k) => h.scale[k] + 0.01 * (h.max[k] - h.min[k]));
+  const dv = new DataView(records.buffer, records.byteOffset, records.byteLength);
+  for (let i = 0, o = 0; i < h.pointCount; i++, o += h.recordLength) {
+    const x = dv.getInt32(o, true) * sx + ox;
+    const y = dv.getInt32(o + 4, true) * sy + oy;
+    const z = dv.getInt32(o + 8, true) * sz + oz;
+    if (x < h.min[0] - tol[0] || x > h.max[0] + tol[0] || y < h.min[1] - tol[1] || y > h.max[1] + tol[1] || z < h.min[2] - tol[2] || z > h.max[2] + tol[2]) {
+      const p = (v: number) => String(Math.round(v * 1000) / 1000);
+      fail(file, `point ${(i + 1).toLocaleString('en-US')} of ${h.pointCount.toLocaleString('en-US')} decodes to (${p(x)}, ${p(y)}, ${p(z)}), outside the header's extent: the compressed data are damaged, or the header claims more points than it holds`);
+    }
+  }
+}
+
 /** Reads a LAZ file into raw ground: the same points, CRS and units a LAS file of the same records gives. */
 export async function readLaz(bytes: Uint8Array, file: string, opts: LazOptions = {}): Promise<RawGround> {
   const h0 = readLasHeader(bytes, file);
   checkLasPoints(h0, file);
   const { header: h, records } = await decodeLazRecords(bytes, file, opts.wasmUrl);
+  checkExtent(h, records, file);
   return pointsFromRecords(h, records, 0, file, `laz${h.versionMajor}.${h.versionMinor}`);
 }

