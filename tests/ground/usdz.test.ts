@@ -126,6 +126,34 @@ describe('analytic features → three USDZExporter → USDZ reader → grid', ()
 
 const usda = (body: string) => strToU8(`#usda 1.0\n(\n    metersPerUnit = 1\n    upAxis = "Y"\n)\n\n${body}\n`);
 
+describe('stage units and up axis (USD stage metadata: metersPerUnit, upAxis; AOUSD Core Specification 1.0.1)', () => {
+  it('a Z-up stage in centimetres comes out in metres, Y up, and grids at the right height', async () => {
+    // A 100 cm square at z = 50 cm, Z up: in metres Y up it is x ∈ [0, 1], y = 0.5, z ∈ [−1, 0].
+    const stage = strToU8(
+      '#usda 1.0\n(\n    metersPerUnit = 0.01\n    upAxis = "Z"\n)\n\ndef Xform "Root"\n{\n    def Mesh "Square"\n    {\n' +
+        '        int[] faceVertexCounts = [3, 3]\n        int[] faceVertexIndices = [0, 1, 2, 0, 2, 3]\n' +
+        '        point3f[] points = [(0, 0, 50), (100, 0, 50), (100, 100, 50), (0, 100, 50)]\n    }\n}\n',
+    );
+    const raw = await readGroundBytes(zipSync({ 'square.usda': stage }, { level: 0 }), 'square.usdz');
+    expect(raw.kind).toBe('mesh');
+    if (raw.kind !== 'mesh') return;
+    expect(raw.vertexCount).toBe(4);
+    expect(raw.triangleCount).toBe(2);
+    const p = Array.from(raw.positions);
+    for (let i = 0; i < 4; i++) {
+      expect(p[3 * i]).toBeGreaterThanOrEqual(-1e-9);
+      expect(p[3 * i]).toBeLessThanOrEqual(1 + 1e-9);
+      expect(p[3 * i + 1]).toBeCloseTo(0.5, 9);
+      expect(p[3 * i + 2]).toBeGreaterThanOrEqual(-1 - 1e-9);
+      expect(p[3 * i + 2]).toBeLessThanOrEqual(1e-9);
+    }
+    const res = buildGround(raw, { cellM: 0.1, fill: true, outliers: false });
+    expect(res.summary.up).toBe('y');
+    expect(res.summary.unitM).toBe(1);
+    for (let k = 0; k < res.grid.heightsM.length; k++) expect(res.grid.heightsM[k] + res.summary.originSource.z).toBeCloseTo(0.5, 6);
+  });
+});
+
 describe('bad USDZ files: a clear message naming the file, within a second', () => {
   const small = () =>
     zipSync(
