@@ -5,9 +5,11 @@
  * bundled by Vite as an asset (no network beyond the app's own server). The grid the app stands
  * on equals the one the core makes in Node from the LAS twin of the same node. A USDZ written by
  * three's USDZExporter is read by three's USDLoader inside the worker (no DOM there), which loads
- * that code as a chunk of its own only when a USDZ arrives.
+ * that code as a chunk of its own only when a USDZ arrives. With module workers, geotiff's
+ * decoders are chunks too: a DEFLATE GeoTIFF written by GDAL still decodes in the worker.
  */
-import { readFileSync } from 'node:fs';
+import { readFileSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { BufferAttribute, BufferGeometry, Mesh, MeshStandardMaterial, Scene } from 'three';
 import { USDZExporter } from 'three/examples/jsm/exporters/USDZExporter.js';
 import { afterAll, beforeAll, beforeEach, expect, inject, it } from 'vitest';
@@ -15,7 +17,7 @@ import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { buildGround } from '../../src/core/ground/index';
 import { readGroundBytes } from '../../src/ground-io/read';
 import { TerrainField } from '../../src/core';
-import { potreeLion } from '../ground/tools';
+import { ascText, potreeLion, requireGdal, run, tempDir } from '../ground/tools';
 import { isHarmless, launchChromium, waitForScene } from './browser';
 
 let browser: Browser;
@@ -142,5 +144,30 @@ it('a USDZ scan is read by three\'s loader in the worker, previewed and stood on
   expect(got.spacingM).toBe(0.04);
   for (let k = 0; k < got.heights.length; k++) expect(Math.abs(got.heights[k] - ref.grid.heightsM[k])).toBeLessThan(1e-6);
   expect(requests.filter((u) => /\/usdz-[^/]*\.js$/.test(u)).length).toBe(1);
+  expect(errors).toEqual([]);
+});
+
+it('a DEFLATE GeoTIFF (GDAL-written) decodes in the module worker, its decoder loaded as a chunk; the grid is the core\'s', async () => {
+  requireGdal();
+  const dir = tempDir();
+  const h = Array.from({ length: 40 * 30 }, (_, k) => 0.01 * (k % 40) + 0.02 * Math.floor(k / 40));
+  writeFileSync(join(dir, 'hill.asc'), ascText(40, 30, 0, 0, 0.1, h));
+  run('gdal_translate', ['-q', '-ot', 'Float32', '-co', 'COMPRESS=DEFLATE', join(dir, 'hill.asc'), join(dir, 'hill.tif')]);
+  const bytes = readFileSync(join(dir, 'hill.tif'));
+  await page.locator('#terrain-h').click();
+  await page.getByTestId('ground-file').setInputFiles({ name: 'hill.tif', mimeType: 'image/tiff', buffer: bytes });
+  await page.getByTestId('ground-preview').or(page.getByTestId('ground-message')).waitFor({ timeout: 60_000 });
+  expect(await page.getByTestId('ground-message').count(), (await page.getByTestId('ground-message').allTextContents()).join()).toBe(0);
+  await page.getByTestId('ground-apply').click();
+  await expect.poll(() => page.evaluate(() => window.__plumbline!.store.getState().scenario.terrain.features[0].type)).toBe('grid');
+  const got = await page.evaluate(() => {
+    const f = window.__plumbline!.store.getState().scenario.terrain.features[0] as unknown as { cols: number; rows: number; heightsM: ArrayLike<number> };
+    return { cols: f.cols, rows: f.rows, heights: Array.from(f.heightsM) };
+  });
+  const ref = buildGround(await readGroundBytes(new Uint8Array(bytes), 'hill.tif'), { fill: true });
+  expect(got.cols).toBe(ref.grid.cols);
+  expect(got.rows).toBe(ref.grid.rows);
+  for (let k = 0; k < got.heights.length; k++) expect(Math.abs(got.heights[k] - ref.grid.heightsM[k])).toBeLessThan(1e-6);
+  expect(requests.filter((u) => /\/deflate-[^/]*\.js$/.test(u)).length).toBe(1);
   expect(errors).toEqual([]);
 });
