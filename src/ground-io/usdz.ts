@@ -43,7 +43,10 @@ export function readUsdz(bytes: Uint8Array, file: string): RawGround {
   let root: Object3D;
   try {
     const ab = bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength) as ArrayBuffer;
-    root = new USDLoader().parse(ab);
+    // Textures are of no use for ground, and cannot load without a DOM (Node, a worker): the loader
+    // starts them anyway and gathers their promises; given onLoad and onError, it waits on them
+    // together and their failures end there, not as unhandled rejections (which end a Node process).
+    root = new USDLoader().parse(ab, '', () => {}, () => {});
   } catch (e) {
     fail(file, `the USD stage cannot be read (${reason(e, 'the loader gave no reason')}): damaged, or a USD feature three's loader does not read`);
   }

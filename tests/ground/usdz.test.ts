@@ -154,6 +154,39 @@ describe('stage units and up axis (USD stage metadata: metersPerUnit, upAxis; AO
   });
 });
 
+describe('a textured scan (a phone scan\'s USDZ carries its photo texture)', () => {
+  it('reads its mesh; the texture, which cannot load without a DOM, leaves no unhandled rejection', async () => {
+    // UsdPreviewSurface with a UsdUVTexture (USD's preview material schema) on the mesh, a PNG in the archive.
+    const stage = strToU8(
+      '#usda 1.0\n(\n    metersPerUnit = 1\n    upAxis = "Y"\n)\n\ndef Xform "Root"\n{\n' +
+        '    def Mesh "Ground" (\n        prepend apiSchemas = ["MaterialBindingAPI"]\n    )\n    {\n' +
+        '        int[] faceVertexCounts = [3, 3]\n        int[] faceVertexIndices = [0, 1, 2, 0, 2, 3]\n' +
+        '        point3f[] points = [(0, 0, 0), (1, 0, 0), (1, 0, -1), (0, 0, -1)]\n' +
+        '        texCoord2f[] primvars:st = [(0, 0), (1, 0), (1, 1), (0, 1)] (\n            interpolation = "vertex"\n        )\n' +
+        '        rel material:binding = </Root/Mat>\n    }\n\n' +
+        '    def Material "Mat"\n    {\n        token outputs:surface.connect = </Root/Mat/PreviewSurface.outputs:surface>\n' +
+        '        def Shader "PreviewSurface"\n        {\n            uniform token info:id = "UsdPreviewSurface"\n' +
+        '            color3f inputs:diffuseColor.connect = </Root/Mat/Tex.outputs:rgb>\n            token outputs:surface\n        }\n' +
+        '        def Shader "Tex"\n        {\n            uniform token info:id = "UsdUVTexture"\n            asset inputs:file = @textures/t.png@\n' +
+        '            float2 inputs:st.connect = </Root/Mat/St.outputs:result>\n            float3 outputs:rgb\n        }\n' +
+        '        def Shader "St"\n        {\n            uniform token info:id = "UsdPrimvarReader_float2"\n            token inputs:varname = "st"\n            float2 outputs:result\n        }\n' +
+        '    }\n}\n',
+    );
+    const png = new Uint8Array([137, 80, 78, 71, 13, 10, 26, 10]);
+    const rejections: unknown[] = [];
+    const onRejection = (e: unknown) => void rejections.push(e);
+    process.on('unhandledRejection', onRejection);
+    try {
+      const raw = await readGroundBytes(zipSync({ 'model.usda': stage, 'textures/t.png': png }, { level: 0 }), 'textured.usdz');
+      expect(raw.kind === 'mesh' && raw.triangleCount).toBe(2);
+      await new Promise((r) => setTimeout(r, 300));
+    } finally {
+      process.off('unhandledRejection', onRejection);
+    }
+    expect(rejections.map(String)).toEqual([]);
+  });
+});
+
 describe('bad USDZ files: a clear message naming the file, within a second', () => {
   const small = () =>
     zipSync(
