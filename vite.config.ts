@@ -51,6 +51,9 @@ export default defineConfig({
   plugins: [react(), serviceWorkerBuildId()],
   base: './',
   build: { outDir: 'dist', sourcemap: false },
+  // Module workers (the app creates every worker with type: 'module'): a worker's dynamic import()
+  // becomes a chunk of its own, so the ground worker loads three's USD loader only for a USDZ file.
+  worker: { format: 'es' },
   server: { headers: SECURITY_HEADERS },
   preview: { headers: SECURITY_HEADERS },
   test: {

@@ -24,10 +24,17 @@ export interface LasHeader {
   readonly offsetToPoints: number;
   readonly scale: readonly [number, number, number];
   readonly offset: readonly [number, number, number];
+  /** The header's extent of the points (§2.4: max and min X, Y, Z), as stated. */
+  readonly min: readonly [number, number, number];
+  readonly max: readonly [number, number, number];
   readonly crs: string | null;
   readonly unitM: number | null;
   readonly verticalUnitM: number | null;
   readonly geographic: boolean;
+  /** Bit 7 (or 6) of the point format byte: the points are LAZ-compressed. */
+  readonly compressed: boolean;
+  /** The "laszip encoded" record (user id "laszip encoded", record 22204): its body's byte offset and length. */
+  readonly laszipVlr: { readonly at: number; readonly length: number } | null;
 }
 
 function ascii(bytes: Uint8Array, off: number, len: number): string {
@@ -38,6 +45,11 @@ function ascii(bytes: Uint8Array, off: number, len: number): string {
     s += String.fromCharCode(c);
   }
   return s;
+}
+
+/** True when the point format byte (offset 104) has the compression bit set (a LAZ file). */
+export function isCompressedLas(bytes: Uint8Array): boolean {
+  return bytes.length > 104 && (bytes[104] & 0xc0) !== 0;
 }
 
 export function readLasHeader(bytes: Uint8Array, file: string): LasHeader {
@@ -53,9 +65,7 @@ export function readLasHeader(bytes: Uint8Array, file: string): LasHeader {
   const nVlr = dv.getUint32(100, true);
   const fmtByte = bytes[104];
   const recordLength = dv.getUint16(105, true);
-  if (fmtByte & 0x80 || fmtByte & 0x40) {
-    fail(file, `compressed points (LAZ, point format byte ${fmtByte}); LAZ is not read yet: decompress it to LAS first`);
-  }
+  const compressed = (fmtByte & 0xc0) !== 0;
   const pointFormat = fmtByte & 0x3f;
   if (pointFormat > 10) fail(file, `point data record format ${pointFormat} does not exist (0–10)`);
   if (recordLength < MIN_RECORD[pointFormat]) fail(file, `point records of ${recordLength} bytes are shorter than format ${pointFormat}'s ${MIN_RECORD[pointFormat]}`);
@@ -73,7 +83,8 @@ export function readLasHeader(bytes: Uint8Array, file: string): LasHeader {
   for (const [i, o] of offset.entries()) if (!Number.isFinite(o) || Math.abs(o) > 1e12) fail(file, `the ${'XYZ'[i]} offset ${o} is not a usable number`);
   if (offsetToPoints < headerSize || offsetToPoints > bytes.length) fail(file, `the offset to the points (${offsetToPoints}) lies outside the file (${bytes.length} bytes)`);
   const need = offsetToPoints + count * recordLength;
-  if (need > bytes.length) {
+  // Compressed points take fewer bytes than this; laz.ts checks them against the chunk table instead.
+  if (!compressed && need > bytes.length) {
     fail(file, `truncated: the header claims ${count.toLocaleString('en-US')} points (${need.toLocaleString('en-US')} bytes) but the file has ${bytes.length.toLocaleString('en-US')} bytes`);
   }
   // VLRs: the CRS and units.
@@ -81,6 +92,7 @@ export function readLasHeader(bytes: Uint8Array, file: string): LasHeader {
   let unitM: number | null = null;
   let verticalUnitM: number | null = null;
   let geographic = false;
+  let laszipVlr: LasHeader['laszipVlr'] = null;
   let off = headerSize;
   for (let v = 0; v < nVlr && v < 10000; v++) {
     if (off + 54 > offsetToPoints) break;
@@ -89,7 +101,9 @@ export function readLasHeader(bytes: Uint8Array, file: string): LasHeader {
     const len = dv.getUint16(off + 20, true);
     const body = off + 54;
     if (body + len > bytes.length) fail(file, `truncated: variable length record ${v} runs past the end of the file`);
-    if (user === 'LASF_Projection' && rec === 34735 && len >= 8) {
+    if (user === 'laszip encoded' && rec === 22204) {
+      laszipVlr = { at: body, length: len };
+    } else if (user === 'LASF_Projection' && rec === 34735 && len >= 8) {
       const nKeys = dv.getUint16(body + 6, true);
       for (let k = 0; k < nKeys && body + 8 + 8 * k + 8 <= body + len; k++) {
         const e = body + 8 + 8 * k;
@@ -118,13 +132,30 @@ export function readLasHeader(bytes: Uint8Array, file: string): LasHeader {
     off = body + len;
   }
   if (geographic) crs = crs ?? 'geographic';
-  return { versionMajor: vMaj, versionMinor: vMin, pointFormat, recordLength, pointCount: count, offsetToPoints, scale, offset, crs, unitM, verticalUnitM, geographic };
+  const max = [dv.getFloat64(179, true), dv.getFloat64(195, true), dv.getFloat64(211, true)] as const;
+  const min = [dv.getFloat64(187, true), dv.getFloat64(203, true), dv.getFloat64(219, true)] as const;
+  return { versionMajor: vMaj, versionMinor: vMin, pointFormat, recordLength, pointCount: count, offsetToPoints, scale, offset, min, max, crs, unitM, verticalUnitM, geographic, compressed, laszipVlr };
+}
+
+/** The checks every LAS or LAZ file meets before its points are read. */
+export function checkLasPoints(h: LasHeader, file: string): void {
+  if (h.geographic) fail(file, `the points are in a geographic CRS (${h.crs}: degrees of latitude and longitude); reproject them to a projected CRS in metres or feet first`);
+  if (h.pointCount < 3) fail(file, `holds ${h.pointCount} point${h.pointCount === 1 ? '' : 's'}; at least 3 are needed`);
 }
 
 export function readLas(bytes: Uint8Array, file: string): RawGround {
   const h = readLasHeader(bytes, file);
-  if (h.geographic) fail(file, `the points are in a geographic CRS (${h.crs}: degrees of latitude and longitude); reproject them to a projected CRS in metres or feet first`);
-  if (h.pointCount < 3) fail(file, `holds ${h.pointCount} points; at least 3 are needed`);
+  if (h.compressed) fail(file, `compressed points (LAZ, point format byte ${bytes[104]}) reached the LAS reader`);
+  checkLasPoints(h, file);
+  return pointsFromRecords(h, bytes, h.offsetToPoints, file, `las${h.versionMajor}.${h.versionMinor}`);
+}
+
+/**
+ * Raw ground from `h.pointCount` uncompressed point records of `h.recordLength` bytes starting at
+ * `start` in `records` (the LAS file itself, or the records decompressed from a LAZ file).
+ */
+export function pointsFromRecords(h: LasHeader, records: Uint8Array, start: number, file: string, format: string): RawGround {
+  const bytes = records;
   const dv = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   const n = h.pointCount;
   const xyz = new Float64Array(n * 3);
@@ -135,7 +166,7 @@ export function readLas(bytes: Uint8Array, file: string): RawGround {
   const classMask = h.pointFormat >= 6 ? 0xff : 0x1f;
   // Heights scaled to the horizontal unit, so one unit factor applies to x, y and z.
   const zToH = h.verticalUnitM !== null && h.unitM !== null ? h.verticalUnitM / h.unitM : 1;
-  for (let i = 0, o = h.offsetToPoints; i < n; i++, o += h.recordLength) {
+  for (let i = 0, o = start; i < n; i++, o += h.recordLength) {
     xyz[3 * i] = dv.getInt32(o, true) * sx + ox;
     xyz[3 * i + 1] = dv.getInt32(o + 4, true) * sy + oy;
     xyz[3 * i + 2] = (dv.getInt32(o + 8, true) * sz + oz) * zToH;
@@ -146,6 +177,6 @@ export function readLas(bytes: Uint8Array, file: string): RawGround {
     xyz,
     count: n,
     classes,
-    info: { file, format: `las${h.versionMajor}.${h.versionMinor}`, crs: h.crs, georeferenced: h.crs !== null, unitM: h.unitM, up: 'z' },
+    info: { file, format, crs: h.crs, georeferenced: h.crs !== null, unitM: h.unitM, up: 'z' },
   };
 }

@@ -8,19 +8,20 @@ import { fail, reason } from './bytes';
 import { readAsc } from './asc';
 import { readGeoTiff } from './geotiff';
 import { readGltf } from './gltf';
-import { readLas } from './las';
+import { isCompressedLas, readLas } from './las';
+import { readLaz } from './laz';
 import { readObj } from './obj';
 import { readPly } from './ply';
 import { readXyz } from './xyz';
 
-export type GroundFormat = 'geotiff' | 'asc' | 'ply' | 'obj' | 'gltf' | 'xyz' | 'las';
+export type GroundFormat = 'geotiff' | 'asc' | 'ply' | 'obj' | 'gltf' | 'usdz' | 'xyz' | 'las';
 
-export const FORMAT_LIST = 'GeoTIFF (.tif), ESRI ASCII grid (.asc), PLY, OBJ, GLB/glTF, LAS (.las), XYZ/CSV points';
+export const FORMAT_LIST = 'GeoTIFF (.tif), ESRI ASCII grid (.asc), PLY, OBJ, GLB/glTF, USDZ, LAS (.las), LAZ (.laz), XYZ/CSV points';
 
 export function detectFormat(file: string, head: Uint8Array): GroundFormat {
   const ext = /\.([A-Za-z0-9]+)$/.exec(file)?.[1].toLowerCase() ?? '';
   const byExt: Record<string, GroundFormat> = {
-    tif: 'geotiff', tiff: 'geotiff', asc: 'asc', ply: 'ply', obj: 'obj', glb: 'gltf', gltf: 'gltf', las: 'las', laz: 'las',
+    tif: 'geotiff', tiff: 'geotiff', asc: 'asc', ply: 'ply', obj: 'obj', glb: 'gltf', gltf: 'gltf', usdz: 'usdz', las: 'las', laz: 'las',
     xyz: 'xyz', csv: 'xyz', txt: 'xyz', pts: 'xyz',
   };
   if (byExt[ext]) return byExt[ext];
@@ -40,6 +41,8 @@ export interface ReadOptions {
   readonly crop?: readonly [number, number, number, number] | null;
   /** Reads a file a glTF refers to. */
   readonly resolve?: (uri: string) => Uint8Array;
+  /** Where the LAZ decoder's WebAssembly is served (the app's worker); Node finds it in the package. */
+  readonly lazWasmUrl?: string;
   /** Progress of a large raster's decoding (rows done of all). */
   readonly onProgress?: (done: number, total: number) => void;
 }
@@ -68,8 +71,14 @@ export async function readGroundBytes(bytes: Uint8Array, file: string, opts: Rea
       return readObj(bytes, file);
     case 'gltf':
       return readGltf(bytes, file, opts.resolve);
+    case 'usdz': {
+      // three and its USD loader load only when a USDZ arrives (a chunk of their own in the app's worker).
+      const { readUsdz } = await import('./usdz');
+      return readUsdz(bytes, file);
+    }
     case 'las':
-      return readLas(bytes, file);
+      // LAS or LAZ by the content (the compression bit of the point format byte), not the name.
+      return isCompressedLas(bytes) ? readLaz(bytes, file, { wasmUrl: opts.lazWasmUrl }) : readLas(bytes, file);
     case 'xyz':
       return readXyz(bytes, file);
   }

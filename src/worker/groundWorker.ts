@@ -1,11 +1,13 @@
 /// <reference lib="webworker" />
 /**
  * Ground import off the main thread: reads the dropped file's bytes (GeoTIFF, .asc, PLY, OBJ,
- * GLB/glTF, LAS, XYZ), runs the pipeline and hands back the grid (its arrays transferred, not
+ * GLB/glTF, USDZ, LAS, LAZ, XYZ), runs the pipeline and hands back the grid (its arrays transferred, not
  * copied) and the summary. Progress after each step; cancel = the app terminates this worker.
  */
 import { buildGround, GROUND_STEP_COUNT, GroundError, type GroundSettings, type GroundSummary } from '../core/ground/index';
 import { readGroundBytes } from '../ground-io/read';
+// The LAZ decoder's WebAssembly, bundled by Vite as an asset of the build (served with the app, cached offline).
+import lazWasmUrl from 'laz-perf/lib/web/laz-perf.wasm?url';
 
 export interface GroundRequest {
   readonly id: number;
@@ -39,6 +41,7 @@ scope.onmessage = async (e: MessageEvent<GroundRequest>) => {
     post({ id: req.id, type: 'progress', done: 0, total: GROUND_STEP_COUNT, stage: 'reading' });
     const raw = await readGroundBytes(new Uint8Array(req.bytes), req.name, {
       crop: req.settings.crop ?? null,
+      lazWasmUrl,
       onProgress: (done, total) => post({ id: req.id, type: 'progress', done: done / total, total: GROUND_STEP_COUNT, stage: `decoding rows ${done} of ${total}` }),
     });
     const res = buildGround(raw, { ...req.settings, onStep: (stage, done) => post({ id: req.id, type: 'progress', done, total: GROUND_STEP_COUNT, stage }) });

