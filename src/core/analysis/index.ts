@@ -10,3 +10,4 @@ export * from './ramp';
 export * from './passOptions';
 export * from './pathCandidates';
 export * from './headings';
+export * from './filledGround';
