@@ -12,8 +12,7 @@ import { runCli } from '../../src/cli/main';
 import type { CliIO } from '../../src/cli/command';
 import { buildModel, parseScenarioText, runPass, scenarioToFile, type Scenario } from '../../src/core/index';
 import { FILLED_GROUND_NOTE, filledSpanWords, filledSpotWords } from '../../src/present/words';
-import { testVehicle } from '../helpers/vehicles';
-import { filledGrid, patchOf } from '../helpers/filledGrid';
+import { filledScenario, patchOf } from '../helpers/filledGrid';
 
 function capture() {
   const out: string[] = [];
@@ -28,15 +27,7 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 function scenarioFile(name: string, patch: ReturnType<typeof patchOf>): { path: string; scenario: Scenario } {
   const stock = parseScenarioText(readFileSync('assets/scenarios/side-hill-stock.json', 'utf8'));
   if (!stock.ok) throw new Error('demo does not parse');
-  const s: Scenario = {
-    ...stock.scenario,
-    name: 'Invented slab with a filled patch',
-    vehicle: testVehicle({ unsprungMassFrontKg: 80, unsprungMassRearKg: 80 }),
-    terrain: { features: [filledGrid(patch)] },
-    pose: { xM: 0, yM: 0, headingRad: 0 },
-    tilt: { angleRad: 0, downhillRad: Math.PI / 2 },
-    path: { fromM: [-3.05, 0], toM: [5.05, 0], stepM: 0.1, headingRad: 0 },
-  };
+  const s: Scenario = filledScenario(stock.scenario, patch);
   const path = join(dir, name);
   writeFileSync(path, JSON.stringify(scenarioToFile(s)));
   // What the commands will see: the file read back (heights through float32, the mask through base64).

@@ -4,6 +4,8 @@
  * fill of flat ground, so the mask changes what is said, never the mechanics).
  */
 import type { TerrainFeature } from '../../src/core/model/types';
+import type { Scenario } from '../../src/core/scenario/types';
+import { testVehicle } from './vehicles';
 
 export const GRID = { x0: -6, y0: -3, spacingM: 0.1, cols: 161, rows: 61 } as const;
 
@@ -52,5 +54,22 @@ export function filledGrid(patch: Patch | null, heights?: Float64Array): Terrain
     heightsM: heights ?? new Float64Array(n),
     filledMask: mask,
     source: { file: 'invented-slab.ply', format: 'ply', crs: null, originSource: [0, 0, 0], sourceUnitM: 1 },
+  };
+}
+
+/**
+ * A scenario on the filled grid: the base's names, units and friction, an invented test rig (with
+ * unsprung masses, as a file needs), standing at the origin heading along +x on level ground, with a
+ * path along the left wheels' tracks from x −3.05 to 5.05 m every 0.1 m.
+ */
+export function filledScenario(base: Scenario, patch: Patch): Scenario {
+  return {
+    ...base,
+    name: 'Invented slab with a filled patch',
+    vehicle: testVehicle({ unsprungMassFrontKg: 80, unsprungMassRearKg: 80 }),
+    terrain: { features: [filledGrid(patch)] },
+    pose: { xM: 0, yM: 0, headingRad: 0 },
+    tilt: { angleRad: 0, downhillRad: Math.PI / 2 },
+    path: { fromM: [-3.05, 0], toM: [5.05, 0], stepM: 0.1, headingRad: 0 },
   };
 }
