@@ -35,7 +35,7 @@ beforeAll(async () => {
   await page.goto(inject('baseUrl'));
   await waitForScene(page);
   await page.getByTestId('scenario-import').setInputFiles(FILE);
-  await expect.poll(() => page.getByTestId('scenario-name').textContent()).toBe(s.name);
+  await page.waitForFunction((name) => document.querySelector('[data-testid="scenario-name"]')?.textContent === name, s.name, { timeout: 30_000 });
 });
 afterAll(async () => {
   await browser?.close();
