@@ -96,15 +96,18 @@ function filledIn(g: MaskedGrid, x: number, y: number): boolean {
   );
 }
 
-/** The wheel names in a bit set from wheelBits, in the order FL, FR, RL, RR. */
-export function filledWheelNames(bits: number): WheelName[] {
+const NO_WHEELS: readonly WheelName[] = Object.freeze([]);
+
+/** The wheel names in a bit set from wheelBits, in the order FL, FR, RL, RR (one shared empty list for none). */
+export function filledWheelNames(bits: number): readonly WheelName[] {
+  if (bits === 0) return NO_WHEELS;
   const out: WheelName[] = [];
   for (let k = 0; k < 4; k++) if (bits & (1 << k)) out.push(WHEEL_NAMES[k]);
   return out;
 }
 
 /** The wheels of one solve standing on filled ground (none when the terrain has no filled nodes). */
-export function wheelsOnFilledGround(terrain: Terrain, r: Pick<SolveResult, 'wheels'>): WheelName[] {
+export function wheelsOnFilledGround(terrain: Terrain, r: Pick<SolveResult, 'wheels'>): readonly WheelName[] {
   const fg = FilledGround.of(terrain);
   return fg ? filledWheelNames(fg.wheelBits(r)) : [];
 }
