@@ -1,24 +1,29 @@
 /**
  * Ground import figures: `ground.ply50mb` (parse and grid a generated 50 MB binary PLY mesh of an
- * invented rock slab; its peak memory growth over the file size) and `ground.tif4000` (a generated
- * 4000² DEFLATE GeoTIFF made by GDAL's gdal_translate: a 1000² window, and the whole file).
- * Quick mode uses small files. The GeoTIFF figures need gdal-bin; without it they say so.
+ * invented rock slab; its peak memory growth over the file size), `ground.tif4000` (a generated
+ * 4000² DEFLATE GeoTIFF made by GDAL's gdal_translate: a 1000² window, and the whole file) and
+ * `ground.solve4000` (cold solves on the whole 4000² GeoTIFF imported as a grid / the same poses on a
+ * 64² grid of the same surface, run by run). Quick mode uses small files. The GeoTIFF figures need
+ * gdal-bin; without it they say so.
  */
 import { execFileSync } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fromFile } from 'geotiff';
-import { buildGround } from '../src/core/ground/index';
+import { buildGround, groundFeature } from '../src/core/ground/index';
+import { buildModel, solveEquilibrium, type Pose, type TerrainFeature, type VehicleModel } from '../src/core/index';
 import { readGroundBytes } from '../src/ground-io/read';
 import { readGeoTiff } from '../src/ground-io/geotiff';
-import { figure, unavailable, type Figure } from './harness';
+import { figure, ratios, summarise, timePaired, unavailable, type Figure } from './harness';
+import { demoScenario } from './scenes';
 
 export const GROUND_TARGETS = [
   { name: 'ground.ply50mb', op: '<=', bound: 1500, unit: 'ms' },
   { name: 'ground.ply50mb.memory', op: '<=', bound: 4, unit: '× file' },
   { name: 'ground.tif4000.window1000', op: '<=', bound: 1000, unit: 'ms' },
   { name: 'ground.tif4000.whole', op: '<=', bound: 10000, unit: 'ms' },
+  { name: 'ground.solve4000', op: '<=', bound: 1.5, unit: '×' },
 ] as const;
 
 export const GROUND_FIGURE_NAMES = ['ground.ply50mb', 'ground.ply50mb.memory'] as const;
@@ -104,6 +109,7 @@ export async function groundFigures(quick: boolean, log: (line: string) => void)
   if (!gdal) {
     figures.push(unavailable('ground.tif4000.window1000', 'ms', 'gdal_translate (gdal-bin) is not installed: the GeoTIFF cannot be generated'));
     figures.push(unavailable('ground.tif4000.whole', 'ms', 'gdal_translate (gdal-bin) is not installed'));
+    figures.push(unavailable('ground.solve4000', '×', 'gdal_translate (gdal-bin) is not installed: the GeoTIFF cannot be generated'));
     return figures;
   }
   const dir = mkdtempSync(join(tmpdir(), 'plumbline-bench-'));
@@ -119,6 +125,7 @@ export async function groundFigures(quick: boolean, log: (line: string) => void)
     const crop: [number, number, number, number] = [x0, y0, x0 + win - 1, y0 + win - 1];
     const winMs: number[] = [];
     const wholeMs: number[] = [];
+    let wholeRaw: Awaited<ReturnType<typeof readGeoTiff>> | null = null;
     for (let r = 0; r < (quick ? 1 : 3); r++) {
       let t0 = performance.now();
       let tiff = await fromFile(tif);
@@ -134,11 +141,65 @@ export async function groundFigures(quick: boolean, log: (line: string) => void)
       wholeMs.push(performance.now() - t0);
       await tiff.close();
       if (r === 0) log(`ground.tif4000 whole: ${whole.cols} × ${whole.rows}, ${reports} progress reports`);
+      if (r === 0) wholeRaw = whole;
     }
     figures.push(figure('ground.tif4000.window1000', winMs, 'ms', `a ${win}² window of a ${size}² DEFLATE tiled GeoTIFF (read from disk, only the tiles it needs) to a grid`));
     figures.push(figure('ground.tif4000.whole', wholeMs, 'ms', `the whole ${size}² GeoTIFF decoded to heights, in bands of 256 rows with a progress report after each`));
+    figures.push(solveOnImported(wholeRaw!, quick, log));
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
   return figures;
+}
+
+/**
+ * ground.solve4000: the whole GeoTIFF imported (buildGround: the raster's own 1 m cell, local origin
+ * at its centre) as the scenario's grid, and a 64² grid cut from it around the centre (the same
+ * nodes: the same surface under the vehicle, only the grid's size differs). Cold solves of the demo
+ * vehicle at eight poses near the centre on each, alternately; the figure is big / small, run by run.
+ */
+export function solveOnImported(raw: Parameters<typeof buildGround>[0], quick: boolean, log: (line: string) => void): Figure {
+  const res = buildGround(raw, {});
+  const big = groundFeature(res);
+  const n = 64;
+  const c0 = Math.floor((big.cols - n) / 2);
+  const r0 = Math.floor((big.rows - n) / 2);
+  const h = new Float32Array(n * n);
+  for (let r = 0; r < n; r++) for (let c = 0; c < n; c++) h[r * n + c] = big.heightsM[(r0 + r) * big.cols + c0 + c];
+  const small: TerrainFeature = {
+    type: 'grid',
+    originM: [big.originM[0] + c0 * big.spacingM, big.originM[1] + r0 * big.spacingM],
+    spacingM: big.spacingM,
+    cols: n,
+    rows: n,
+    heightsM: h,
+  };
+  // Poses within ±8 m of the small grid's centre: the vehicle and its tyres stay well inside it.
+  const cx = small.originM[0] + ((n - 1) / 2) * big.spacingM;
+  const cy = small.originM[1] + ((n - 1) / 2) * big.spacingM;
+  const poses: Pose[] = [];
+  for (let k = 0; k < 8; k++) poses.push({ xM: cx - 8 + (16 * k) / 7, yM: cy + 6 * Math.sin(k), headingRad: (2 * Math.PI * k) / 8 });
+  const vehicle = demoScenario().vehicle;
+  const mBig: VehicleModel = buildModel(vehicle, { features: [big] });
+  const mSmall: VehicleModel = buildModel(vehicle, { features: [small] });
+  // Same ground, same answer: the loads on the two grids agree (a check that the comparison is fair).
+  for (const p of poses) {
+    const a = solveEquilibrium(mBig, p);
+    const b = solveEquilibrium(mSmall, p);
+    for (let w = 0; w < 4; w++) {
+      if (Math.abs((a.wheels[w].loadN ?? 0) - (b.wheels[w].loadN ?? 0)) > 1e-6 * a.weightN) throw new Error('ground.solve4000: the two grids give different loads');
+    }
+  }
+  const solveAll = (m: VehicleModel) => () => {
+    for (const p of poses) solveEquilibrium(m, p);
+  };
+  const t = timePaired(solveAll(mSmall), solveAll(mBig), quick ? { warmup: 1, runs: 1, batch: 1 } : { warmup: 3, runs: 21, batch: 5 });
+  const per = (ms: readonly number[]) => (summarise(ms).median / poses.length).toFixed(3);
+  log(`ground.solve4000: ${big.cols} × ${big.rows} imported: ${per(t.b)} ms a solve; 64²: ${per(t.a)} ms`);
+  return figure(
+    'ground.solve4000',
+    ratios(t.b, t.a),
+    '×',
+    `cold solve on the whole ${big.cols} × ${big.rows} GeoTIFF imported as a grid (${big.spacingM} m cell) / the same 8 poses on the 64² grid cut from it around the vehicle; per solve ${per(t.b)} ms / ${per(t.a)} ms`,
+  );
 }

@@ -7,6 +7,7 @@
 import type { SolveResult, SolveStatus } from '../core/model/types';
 import { passOutcome, type PassEvent, type PassOutcome, type PassResult } from '../core/analysis/pass';
 import type { BuildChange } from '../core/analysis/builds';
+import type { FilledGroundSpan } from '../core/analysis/filledGround';
 import { SPARE_DATUM, type SlopeToSpare, type SpareDirection } from '../core/analysis/spare';
 import { DEG_PER_RAD, NO_VALUE, RAD_PER_DEG, angleText, changeText, distanceText, fixed, lengthText, massText, percentText, quantityText, shortText, toDisplay, type UnitSystem } from './units';
 
@@ -284,4 +285,48 @@ export function spareLines(sp: SlopeToSpare): string[] {
   }
   if (!sp.standsNow) out.push('It does not stand as it is: there is no slope to spare.');
   return out;
+}
+
+/** What filled ground is, said once wherever a result says a tyre stands on it. */
+export const FILLED_GROUND_NOTE =
+  'Filled ground: the import filled in heights where the scan or survey had no data; a tyre standing there rests on a guessed height, so its load and the margins near it are less certain.';
+
+/** "FL and RL": wheel names joined for a sentence. */
+function wheelList(wheels: readonly string[]): string {
+  return wheels.length <= 1 ? (wheels[0] ?? '') : `${wheels.slice(0, -1).join(', ')} and ${wheels[wheels.length - 1]}`;
+}
+
+/** One wheel's stretch of a pass on filled ground: "FL stands on filled ground from 2.10 m to 3.40 m" (or "at 2.10 m"). */
+export function filledSpanWords(span: FilledGroundSpan, units: UnitSystem): string {
+  const from = distanceText(span.startDistanceM, units);
+  if (span.endDistanceM === span.startDistanceM) return `${span.wheel} stands on filled ground at ${from}`;
+  return `${span.wheel} stands on filled ground from ${from} to ${distanceText(span.endDistanceM, units)}`;
+}
+
+/** The note for one spot (rose, heading sweep): which tyres stand on filled ground there; null when none. */
+export function filledSpotWords(wheels: readonly string[] | undefined): string | null {
+  if (!wheels || wheels.length === 0) return null;
+  return `${wheelList(wheels)} ${wheels.length === 1 ? 'stands' : 'stand'} on filled ground here (no data there: the import filled it in), so the limits at this spot rest on guessed heights.`;
+}
+
+/** The note for a heading sweep: the headings at which a tyre stands on filled ground; null when none. */
+export function filledHeadingsWords(headings: readonly { readonly headingRad: number; readonly filledWheels?: readonly string[] }[]): string | null {
+  const on = headings.filter((h) => (h.filledWheels?.length ?? 0) > 0);
+  if (on.length === 0) return null;
+  const list = on.length === headings.length ? 'every heading' : on.length === 1 ? `the heading ${angleText(on[0].headingRad)}` : `${on.length} of ${headings.length} headings`;
+  return `At ${list} a tyre stands on filled ground (no data there: the import filled it in), so the limits there rest on guessed heights.`;
+}
+
+/** The note for a line sweep: how many lines have a tyre on filled ground; null when none. */
+export function filledLinesWords(lines: readonly { readonly onFilledGround?: boolean }[]): string | null {
+  const n = lines.filter((l) => l.onFilledGround).length;
+  if (n === 0) return null;
+  return `${n} of ${lines.length} line${lines.length === 1 ? '' : 's'} put a tyre on filled ground (marked "filled"): their margins rest on guessed heights.`;
+}
+
+/** The note for a pass: every wheel's stretch on filled ground, then what filled ground is; null when none. */
+export function filledPassWords(r: Pick<PassResult, 'filledGround'>, units: UnitSystem): string | null {
+  const spans = r.filledGround ?? [];
+  if (spans.length === 0) return null;
+  return `${spans.map((s) => filledSpanWords(s, units)).join('; ')}. ${FILLED_GROUND_NOTE}`;
 }

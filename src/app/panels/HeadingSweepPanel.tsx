@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { HEADING_MAX_EXTRA_RAD, type HeadingResult, type HeadingSweepResult, type Scenario } from '../../core';
 import { runHeadings } from '../../worker/client';
 import { DEG_PER_RAD, distanceText, shortText } from '../../present/units';
-import { downhillWords } from '../../present/words';
+import { downhillWords, filledHeadingsWords } from '../../present/words';
 import { useWorkerJob } from './useWorkerJob';
 import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../../store/react';
 import { headingSweepStore, ROSE_M_PER_DEG } from '../../store/headingSweep';
@@ -144,6 +144,7 @@ export function HeadingSweepPanel() {
                 Not solved (the solver did not settle; not a tip, left out of the worst): {r.unsolved.map((h) => `${deg1(h.headingRad)}°`).join(', ')}.
               </p>
             ) : null}
+            {filledHeadingsWords(r.headings) ? <p className="hint" data-testid="heading-filled-ground">{filledHeadingsWords(r.headings)}</p> : null}
             <HeadingChart r={r} />
             <p className="fineprint">
               Solid: extra tilt to the tip; dashed: to the first wheel lift; red: the worst heading. Over the terrain the rose's radius is{' '}

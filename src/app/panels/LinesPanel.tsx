@@ -2,6 +2,7 @@ import { useState } from 'react';
 import type { LineSummary, Scenario, SweepRange } from '../../core';
 import { runLines, type LineSweepReply } from '../../worker/client';
 import { RAD_PER_DEG, angleText, changeText, distanceText } from '../../present/units';
+import { filledLinesWords } from '../../present/words';
 import { useWorkerJob } from './useWorkerJob';
 import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../../store/react';
 import { NumberField } from './NumberField';
@@ -117,6 +118,7 @@ export function LinesPanel() {
                 </li>
               ))}
             </ol>
+            {filledLinesWords(ranked) ? <p className="hint" data-testid="lines-filled-ground">{filledLinesWords(ranked)}</p> : null}
             <div className="buttons">
               <button
                 type="button"

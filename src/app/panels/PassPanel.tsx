@@ -4,7 +4,7 @@ import { runJob } from '../../worker/client';
 import type { ReplyOf } from '../../worker/messages';
 import { ENERGY_COLOUR, MARGIN_COLOUR, WHEEL_COLOURS, WHEEL_DASHES } from '../../present/palette';
 import { angleText, distanceText, radToDeg, shortText, toDisplay, unitSymbol } from '../../present/units';
-import { QUASI_STATIC_CAUTION, eventWords, passHeadline } from '../../present/words';
+import { QUASI_STATIC_CAUTION, eventWords, filledPassWords, passHeadline } from '../../present/words';
 import { useWorkerJob } from './useWorkerJob';
 import { usePlumb, usePlumbStore, useScenarioPoseAside } from '../../store/react';
 import { DistanceChart, type DistanceMark } from './DistanceChart';
@@ -141,6 +141,7 @@ export function PassPanel() {
             >
               {passHeadline(r, units)}
             </p>
+            {filledPassWords(r, units) ? <p className="hint" data-testid="pass-filled-ground">{filledPassWords(r, units)}</p> : null}
             <div className="scrubber">
               <button type="button" data-testid="pass-play" onClick={() => {
                 if (!playing && station >= r.stations.length - 1) show(done, 0);

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { spareFromRose, type RoseResult } from '../../core';
 import { runRose } from '../../worker/client';
 import { angleText, radToDeg } from '../../present/units';
-import { downhillWords, spareLines } from '../../present/words';
+import { downhillWords, filledSpotWords, spareLines } from '../../present/words';
 import { MARGIN_COLOUR, WHEEL_COLOURS } from '../../present/palette';
 import { useWorkerJob } from './useWorkerJob';
 import { usePlumb, usePlumbStore } from '../../store/react';
@@ -108,6 +108,7 @@ export function RosePanel() {
                 <li key={i}>{line}</li>
               ))}
             </ul>
+            {filledSpotWords(done.result.filledWheels) ? <p className="hint" data-testid="rose-filled-ground">{filledSpotWords(done.result.filledWheels)}</p> : null}
             <p className="fineprint">
               Solid line: tip; dashed: first lift. {done.result.directions.length} directions in {done.wallMs.toFixed(0)} ms. Static limits
               only: keep far inside them.

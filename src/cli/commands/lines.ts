@@ -6,7 +6,7 @@ import { loadScenarioFile, toJsonText } from '../load';
 import { LONG_JOB_S, capWorkers, estimateSweepSeconds, runLinesParallel } from '../parallel';
 import { deg, formatCsv, parseRange, progressReporter, round } from '../analysisOutput';
 import { NO_VALUE, RAD_PER_DEG, angleText, changeText, distanceText, valueText } from '../../present/units';
-import { QUASI_STATIC_CAUTION } from '../../present/words';
+import { QUASI_STATIC_CAUTION, filledLinesWords } from '../../present/words';
 /** Most lines in one sweep. */
 const MAX_LINES = 5000;
 
@@ -28,6 +28,7 @@ function lineJson(l: LineSummary, rank: number, names: readonly string[] | null)
     firstUnload: l.firstUnload ? { wheel: l.firstUnload.wheel, distanceM: round(l.firstUnload.distanceM) } : null,
     firstLift: l.firstLift ? { wheel: l.firstLift.wheel, distanceM: round(l.firstLift.distanceM) } : null,
     tip: l.tip ? { distanceM: round(l.tip.distanceM), reason: l.tip.reason } : null,
+    onFilledGround: l.onFilledGround ?? false,
   };
 }
 
@@ -125,7 +126,7 @@ export const linesCommand: CommandSpec = {
     } else if (args.options.csv) {
       io.out(
         formatCsv(
-          ['rank', 'line', ...(names ? ['name'] : ['offset_m', 'heading_change_deg']), 'min_force_angle_deg', 'at_m', 'energy_at_min_m', 'min_clearance_m', 'first_unload', 'first_lift', 'tip_at_m'],
+          ['rank', 'line', ...(names ? ['name'] : ['offset_m', 'heading_change_deg']), 'min_force_angle_deg', 'at_m', 'energy_at_min_m', 'min_clearance_m', 'first_unload', 'first_lift', 'tip_at_m', 'on_filled_ground'],
           ranking.ranked.map((l, i) => [
             ranking.rank[i],
             l.index,
@@ -137,6 +138,7 @@ export const linesCommand: CommandSpec = {
             l.firstUnload ? `${l.firstUnload.wheel}@${round(l.firstUnload.distanceM)}` : null,
             l.firstLift ? `${l.firstLift.wheel}@${round(l.firstLift.distanceM)}` : null,
             l.tip ? round(l.tip.distanceM) : null,
+            l.onFilledGround ?? false,
           ]),
         ),
       );
@@ -145,6 +147,7 @@ export const linesCommand: CommandSpec = {
       const describe = (l: LineSummary) =>
         `${names ? `"${names[l.index]}"` : `offset ${changeText('distance', l.offsetM, u)}, heading ${changeText('angle', l.headingChangeRad, u)}`}: smallest force-angle margin ${angleText(l.minForceAngleRad)}${l.tip ? `, tips at ${distanceText(l.tip.distanceM, u)}` : ''}`;
       io.out(`${s.name}: ${s.vehicle.name}, ${lines.length} ${names ? 'saved ' : ''}lines`);
+      const anyFilled = ranking.ranked.some((l) => l.onFilledGround);
       const tie = (tied: boolean) => (tied ? ' (tied with others within 0.1°)' : '');
       io.out(formatKeyValues([['best line', describe(ranking.best) + tie(ranking.bestTied)], ['worst line', describe(ranking.worst) + tie(ranking.worstTied)]]));
       io.out('');
@@ -158,6 +161,7 @@ export const linesCommand: CommandSpec = {
             quantityColumn('underbody gap', 'short', u),
             { header: 'goes light' },
             quantityColumn('tip at', 'distance', u),
+            ...(anyFilled ? [{ header: 'ground' }] : []),
           ],
           ranking.ranked.map((l, i) => [
             ranking.rank[i],
@@ -167,9 +171,12 @@ export const linesCommand: CommandSpec = {
             valueText('short', l.minClearanceM, u),
             l.firstUnload ? `${l.firstUnload.wheel} at ${distanceText(l.firstUnload.distanceM, u)}` : '',
             l.tip ? valueText('distance', l.tip.distanceM, u) : NO_VALUE,
+            ...(anyFilled ? [l.onFilledGround ? 'filled' : ''] : []),
           ]),
         ),
       );
+      const filledNote = filledLinesWords(ranking.ranked);
+      if (filledNote) io.out(filledNote);
       io.out('');
       io.out(QUASI_STATIC_CAUTION);
     }

@@ -6,7 +6,7 @@ import { loadScenarioFile, toJsonText } from '../load';
 import { modelOf } from '../solveScenario';
 import { deg, formatCsv, progressReporter, round } from '../analysisOutput';
 import { NO_VALUE, angleText, distanceText, fixed, percentText, shortText, valueText, type UnitSystem } from '../../present/units';
-import { QUASI_STATIC_CAUTION, eventWhat, partWords, passHeadline } from '../../present/words';
+import { FILLED_GROUND_NOTE, QUASI_STATIC_CAUTION, eventWhat, filledSpanWords, partWords, passHeadline } from '../../present/words';
 
 /** Stations from which a pass reports progress on stderr. */
 const PROGRESS_FROM_STATIONS = 500;
@@ -43,6 +43,14 @@ export function passJson(r: PassResult): object {
       endStation: e.endStation,
       endDistanceM: round(e.endDistanceM),
     })),
+    // Where a loaded wheel stands on imported ground that was filled in (no data there), per wheel.
+    filledGround: (r.filledGround ?? []).map((f) => ({
+      wheel: f.wheel,
+      startStation: f.startStation,
+      startDistanceM: round(f.startDistanceM),
+      endStation: f.endStation,
+      endDistanceM: round(f.endDistanceM),
+    })),
     stations: r.stations.map((s) => ({
       station: s.index,
       distanceM: round(s.distanceM),
@@ -52,6 +60,7 @@ export function passJson(r: PassResult): object {
       status: s.status,
       approximate: s.approximate,
       hungUp: s.hungUp,
+      filledWheels: s.filledWheels ?? [],
       wheels: Object.fromEntries(
         s.wheels.map((w, i) => [
           WHEEL_NAMES[i],
@@ -73,11 +82,11 @@ export function passJson(r: PassResult): object {
 export function passCsv(r: PassResult): string {
   const header = ['station', 'distance_m', 'x_m', 'y_m', 'status', 'approximate'];
   for (const w of WHEEL_NAMES) header.push(`${w}_load_n`, `${w}_share`, `${w}_travel_fraction`, `${w}_lifted`, `${w}_friction_demand`);
-  header.push('roll_deg', 'pitch_deg', 'force_angle_deg', 'energy_m', 'clearance_m', 'clearance_part');
+  header.push('roll_deg', 'pitch_deg', 'force_angle_deg', 'energy_m', 'clearance_m', 'clearance_part', 'filled_wheels');
   const rows = r.stations.map((s) => {
     const row: (string | number | boolean | null)[] = [s.index, round(s.distanceM), round(s.pose.xM), round(s.pose.yM), s.status, s.approximate];
     for (const w of s.wheels) row.push(round(w.loadN, 1), round(w.loadShare), round(w.travelFraction), w.lifted, round(w.frictionDemand));
-    row.push(deg(s.rollRad), deg(s.pitchRad), deg(s.forceAngleRad), round(s.energyM), round(s.clearanceM), s.clearancePart);
+    row.push(deg(s.rollRad), deg(s.pitchRad), deg(s.forceAngleRad), round(s.energyM), round(s.clearanceM), s.clearancePart, (s.filledWheels ?? []).join(' '));
     return row;
   });
   return formatCsv(header, rows);
@@ -117,6 +126,12 @@ function printText(s: Scenario, r: PassResult, io: CliIO, withStations: boolean,
         r.events.map((e) => [eventWhat(e), valueText('distance', e.startDistanceM, u), e.endDistanceM === null ? (e.kind === 'tip' ? NO_VALUE : 'end') : valueText('distance', e.endDistanceM, u)]),
       ),
     );
+  }
+  const filled = r.filledGround ?? [];
+  if (filled.length > 0) {
+    io.out('');
+    for (const f of filled) io.out(`${filledSpanWords(f, u)}.`);
+    io.out(FILLED_GROUND_NOTE);
   }
   if (withStations) {
     io.out('');

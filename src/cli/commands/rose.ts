@@ -1,7 +1,7 @@
 /** `plumbline rose FILE`: tilt-table lift and tip angles for downhill directions all round the vehicle. */
 import { buildModel, spareFromRose, stabilityRose, type RoseDirection, type RoseResult } from '../../core/index';
 import { RAD_PER_DEG, directionText } from '../../present/units';
-import { QUASI_STATIC_CAUTION, downhillWords, spareLines } from '../../present/words';
+import { QUASI_STATIC_CAUTION, downhillWords, filledSpotWords, spareLines } from '../../present/words';
 import { EXIT_BAD_INPUT, EXIT_OK, type CommandSpec } from '../command';
 import { formatKeyValues, formatTable } from '../format';
 import { loadScenarioFile, toJsonText } from '../load';
@@ -33,6 +33,7 @@ export function roseJson(r: RoseResult, onTerrain: boolean): object {
     weakestLift: directionJson(r.weakestLift),
     directions: r.directions.map(directionJson),
     evaluations: r.evaluations,
+    filledWheels: r.filledWheels ?? [],
   };
 }
 
@@ -106,6 +107,7 @@ export const roseCommand: CommandSpec = {
       );
       io.out('');
       for (const line of spareLines(spareFromRose(r))) io.out(line);
+      const filledNote = filledSpotWords(r.filledWheels); if (filledNote) io.out(filledNote);
       io.out('');
       io.out(
         formatTable(

@@ -17,6 +17,7 @@ import { TerrainField } from '../terrain/field';
 import { DEFAULT_FRICTION, buildModel, solveEquilibrium } from '../solver/equilibrium';
 import type { VehicleModel } from '../solver/model';
 import { tiltSweep } from '../solver/tilt';
+import { FilledGround, filledWheelNames } from './filledGround';
 
 import { RAD_PER_DEG as DEG } from '../scenario/fields';
 /** Below this slope the spot counts as level and the extra tilt is taken left side down (rad): 0.1°. */
@@ -90,6 +91,8 @@ export interface HeadingResult {
   readonly firstLift: { readonly wheel: WheelName; readonly extraRad: number } | null;
   /** Extra tilt at which it tips, and the edge; 0 when it does not stand here; null if no tip up to HEADING_MAX_EXTRA_RAD. */
   readonly tip: { readonly extraRad: number; readonly edge: readonly WheelName[] } | null;
+  /** Loaded wheels standing on imported ground that was filled in, on the ground as it is at this heading (filledGround.ts); empty when none. */
+  readonly filledWheels?: readonly WheelName[];
 }
 
 export interface HeadingJob {
@@ -117,12 +120,14 @@ export function solveHeading(model: VehicleModel, xM: number, yM: number, ground
   const pose: Pose = { xM, yM, headingRad };
   const downhillRad = downhillAt(ground, headingRad);
   const r = solveEquilibrium(model, pose, { friction });
+  const filled = FilledGround.of(model.field.terrain);
+  const filledWheels = filled && r.status !== 'not-converged' ? filledWheelNames(filled.wheelBits(r)) : [];
   if (r.status === 'not-converged') {
     return { headingRad, downhillRad, solved: false, stands: false, forceAngleRad: 0, firstLift: null, tip: null };
   }
   const stands = r.status === 'converged' && r.margins.forceAngleRad > 0;
   if (!stands) {
-    return { headingRad, downhillRad, solved: true, stands, forceAngleRad: Math.min(0, r.margins.forceAngleRad), firstLift: null, tip: { extraRad: 0, edge: [] } };
+    return { headingRad, downhillRad, solved: true, stands, forceAngleRad: Math.min(0, r.margins.forceAngleRad), firstLift: null, tip: { extraRad: 0, edge: [] }, filledWheels };
   }
   const sw = tiltSweep(model, pose, { downhillRad, friction, findSlide: false, maxAngleRad: HEADING_MAX_EXTRA_RAD });
   return {
@@ -133,6 +138,7 @@ export function solveHeading(model: VehicleModel, xM: number, yM: number, ground
     forceAngleRad: r.margins.forceAngleRad,
     firstLift: sw.firstLift ? { wheel: sw.firstLift.wheel, extraRad: sw.firstLift.angleRad } : null,
     tip: sw.tip ? { extraRad: sw.tip.angleRad, edge: sw.tip.edge } : null,
+    filledWheels,
   };
 }
 

@@ -11,3 +11,4 @@ export * from './passOptions';
 export * from './pathCandidates';
 export * from './headings';
 export * from './pathGeometry';
+export * from './filledGround';

@@ -59,6 +59,8 @@ export interface LineSummary {
   readonly minMarginDistanceM: number;
   readonly energyAtMinM: number;
   readonly minClearanceM: number;
+  /** Whether a loaded wheel stands on imported ground that was filled in anywhere along the line (filledGround.ts); absent = no. */
+  readonly onFilledGround?: boolean;
 }
 
 /** The values of a range: from, from + step, ... up to to (within a rounding tolerance). */
@@ -137,6 +139,7 @@ export function summariseLine(line: LineSpec, r: PassResult): LineSummary {
     minMarginDistanceM: r.minMargin ? r.minMargin.distanceM : 0,
     energyAtMinM: r.minMargin ? r.minMargin.energyM : 0,
     minClearanceM: r.minClearance ? r.minClearance.clearanceM : Infinity,
+    onFilledGround: (r.filledGround?.length ?? 0) > 0,
   };
 }
 

@@ -13,6 +13,7 @@ import { DEFAULT_FRICTION, DEFAULT_MAX_ITERATIONS, solveEquilibrium } from '../s
 import type { VehicleModel } from '../solver/model';
 import { DEFAULT_CLEARANCE_GRID, UNDERBODY_PARTS, UnderbodySampler, type ClearanceGrid, type UnderbodyPart } from './clearance';
 import { PathWalker, pathLengthM } from './pathGeometry';
+import { FilledGround, filledGroundSpans, filledWheelNames, type FilledGroundSpan } from './filledGround';
 
 /** Share of a wheel's level-ground load below which it counts as light. @default 0.25 */
 export const DEFAULT_LIGHT_SHARE = 0.25;
@@ -81,6 +82,8 @@ export interface PassStation {
    * are not a state the vehicle can be in and are never shown as standing.
    */
   readonly hungUp: boolean;
+  /** Loaded wheels whose contact stands on imported ground that was filled in (filledGround.ts); empty when none. */
+  readonly filledWheels?: readonly WheelName[];
 }
 
 /**
@@ -137,6 +140,8 @@ export interface PassResult {
   readonly approximateStations: number;
   /** Full equilibrium evaluations used. */
   readonly evaluations: number;
+  /** Where a loaded wheel stands on filled ground (no data there: its load rests on a guessed height), per wheel; empty when never. */
+  readonly filledGround?: readonly FilledGroundSpan[];
 }
 
 /** Number of stations from → to (along every leg) at the step, both ends included (the last may be short). */
@@ -212,6 +217,8 @@ export function runPass(model: VehicleModel, path: PathSpec, opts: PassOptions =
   let evaluations = 0;
   let approximateStations = 0;
   let warm: Float64Array | null = null;
+  const filled = FilledGround.of(model.field.terrain);
+  const filledBits: number[] = [];
 
   for (let i = 0; i < total; i++) {
     const s = distanceOf(i);
@@ -235,6 +242,8 @@ export function runPass(model: VehicleModel, path: PathSpec, opts: PassOptions =
     const clearance = sampler.measure(model.field, r, pose.xM, pose.yM, pose.headingRad);
     const hungUp = ok && clearance.minM < -HANG_UP_DEPTH_M;
     const w = r.wheels;
+    const fBits = filled ? filled.wheelBits(r) : 0;
+    filledBits.push(fBits);
     const station: PassStation = {
       index: i,
       distanceM: s,
@@ -250,6 +259,7 @@ export function runPass(model: VehicleModel, path: PathSpec, opts: PassOptions =
       clearancePointWorld: clearance.pointWorld,
       clearancePart: clearance.part,
       hungUp,
+      filledWheels: filledWheelNames(fBits),
     };
     stations.push(station);
     opts.onStation?.(station, r);
@@ -331,7 +341,8 @@ export function runPass(model: VehicleModel, path: PathSpec, opts: PassOptions =
     if (openPart[p] >= 0) close('contact', null, UNDERBODY_PARTS[p], openPart[p], null);
   }
   events.sort((a, b) => a.startStation - b.startStation || kindOrder(a.kind) - kindOrder(b.kind));
-  return { path, plannedStations: total, stations, events, firstUnload, firstLift, hangUp, firstSlide, tip, minMargin, minClearance, lightShare, friction, approximateStations, evaluations };
+  const filledGround = filledGroundSpans(filledBits, stations.map((st) => st.distanceM));
+  return { path, plannedStations: total, stations, events, firstUnload, firstLift, hangUp, firstSlide, tip, minMargin, minClearance, lightShare, friction, approximateStations, evaluations, filledGround };
 }
 
 function passWheel(w: WheelResult): PassWheel {

@@ -12,7 +12,9 @@
  *
  * Static limits only: operating limits are far lower (common practice: makers print about 15°).
  */
-import type { Pose } from '../model/types';
+import type { Pose, WheelName } from '../model/types';
+import { solveEquilibrium } from '../solver/equilibrium';
+import { FilledGround, filledWheelNames } from './filledGround';
 import { tiltSweep, type TiltAngle, type TiltLift, type TiltSweepDetail, type TiltTip } from '../solver/tilt';
 import type { VehicleModel } from '../solver/model';
 import { RAD_PER_DEG as DEG } from '../scenario/units';
@@ -52,6 +54,8 @@ export interface RoseResult {
   readonly evaluations: number;
   /** Slope of the ground under the vehicle from level at the start of the sweeps (rad): 0 on a level table. */
   readonly groundFromLevelRad: number;
+  /** Loaded wheels standing on imported ground that was filled in at the spot, before any tilt (filledGround.ts); empty when none. */
+  readonly filledWheels?: readonly WheelName[];
 }
 
 function summary(r: TiltSweepDetail): RoseDirection {
@@ -94,7 +98,10 @@ export function stabilityRose(model: VehicleModel, pose: Pose, opts: RoseOptions
     opts.onProgress?.(i + 1, n);
   }
   const marked = markEdgeChanges(directions);
-  return { directions: marked, ...weakestOf(marked, maxAngleRad), maxAngleRad, evaluations, groundFromLevelRad };
+  // The spot's tyres on filled ground: one solve on the ground as it is, only where the terrain has a filled mask.
+  const filled = FilledGround.of(model.field.terrain);
+  const filledWheels = filled ? filledWheelNames(filled.wheelBits(solveEquilibrium(model, pose, { friction: opts.friction }))) : [];
+  return { directions: marked, ...weakestOf(marked, maxAngleRad), maxAngleRad, evaluations, groundFromLevelRad, filledWheels };
 }
 
 function weakestOf(directions: readonly RoseDirection[], maxAngleRad: number): { weakest: RoseDirection; weakestLift: RoseDirection } {

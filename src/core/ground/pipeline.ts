@@ -14,8 +14,11 @@ import { chooseCell, contactPatchLengthM, coveredSpacingM } from './cellSize';
 import { sizeWarning } from './units';
 import { GroundError, type HeightGrid, type LocalOrigin, type SourceInfo, type StepReport } from './types';
 
-/** Largest grid the scenario holds (nodes), as the scenario file's grid limit. */
-export const MAX_GRID_NODES = 4_194_304;
+/**
+ * Largest grid the scenario holds (nodes): the scenario file's grid limit, SCENARIO_LIMITS.gridNodes
+ * (4096 × 4096; written out here so the ground worker does not load the schema; a test keeps them equal).
+ */
+export const MAX_GRID_NODES = 16_777_216;
 
 export type RawGround =
   | { readonly kind: 'points'; readonly xyz: Float64Array; readonly count: number; readonly classes: Uint8Array | null; readonly info: SourceInfo }

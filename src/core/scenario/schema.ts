@@ -66,8 +66,12 @@ export const SCENARIO_LIMITS = {
   payloadItems: 50,
   /** Points per profile feature. */
   profilePoints: 100_000,
-  /** Nodes per grid feature (2048 × 2048): 32 MiB of heights as Float64. */
-  gridNodes: 4_194_304,
+  /**
+   * Nodes per grid feature (4096 × 4096, so an imported 4000 × 4000 elevation model fits): 128 MiB of
+   * heights as Float64 in memory; in a file, the compact float32 form is about 85 MiB of base64 (within
+   * fileBytes), while a list of numbers that long meets the file limit first.
+   */
+  gridNodes: 16_777_216,
   /** Stations along a path (its length over its step). */
   pathStations: 100_000,
   /** Points in a path or in one saved candidate line (start and end included). */
@@ -206,6 +210,9 @@ export function buildScenarioSchema(u: UnitSystem) {
   const gridHeights = () =>
     z.unknown().transform((v: unknown, ctx) => {
       const unit = unitLabel('length', u);
+      // Heights decoded from the compact form are already a fresh Float64Array: checked and kept as they
+      // are, not copied again (at the node limit each copy is 128 MiB).
+      let decoded: Float64Array | null = null;
       if (typeof v === 'string') {
         // The compact form of imported ground (docs/scenario-format.md): float32 little-endian, base64.
         const d = decodeHeights(v);
@@ -213,7 +220,7 @@ export function buildScenarioSchema(u: UnitSystem) {
           ctx.addIssue({ code: 'custom', message: d });
           return z.NEVER;
         }
-        v = d;
+        v = decoded = d;
       }
       if (!Array.isArray(v) && !(v instanceof Float64Array)) {
         ctx.addIssue({
@@ -227,7 +234,7 @@ export function buildScenarioSchema(u: UnitSystem) {
         return z.NEVER;
       }
       const maxH = metricToFileUnits('length', PLAUSIBLE.heightMaxM, u);
-      const out = new Float64Array(v.length);
+      const out = decoded ?? new Float64Array(v.length);
       let bad = 0;
       for (let i = 0; i < v.length; i++) {
         const h = v[i];

@@ -59,6 +59,8 @@ function edgeProfile(d: number, h: number, r: number, out: Float64Array): number
  */
 export class TerrainField {
   readonly featureCount: number;
+  /** The terrain compiled (kept for what the heights alone do not say: an imported grid's filled mask). */
+  readonly terrain: Terrain;
   private readonly types: Int32Array;
   private readonly params: Float64Array;
   /** Feature bounds [xmin, xmax, ymin, ymax]; ±Infinity where unbounded. */
@@ -70,6 +72,7 @@ export class TerrainField {
   constructor(terrain: Terrain) {
     const n = terrain.features.length;
     this.featureCount = n;
+    this.terrain = terrain;
     this.types = new Int32Array(n);
     this.params = new Float64Array(n * STRIDE);
     this.bounds = new Float64Array(n * 4);

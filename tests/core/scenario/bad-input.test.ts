@@ -146,8 +146,8 @@ const CASES: Case[] = [
   },
   {
     name: 'grid larger than the node limit',
-    input: () => withFeature(grid({ cols: 4096, rows: 2048, heights: [] })),
-    errors: [`terrain.features[2]: cols × rows must be ≤ ${SCENARIO_LIMITS.gridNodes} nodes, got 8388608`],
+    input: () => withFeature(grid({ cols: 8192, rows: 4096, heights: [] })),
+    errors: [`terrain.features[2]: cols × rows must be ≤ ${SCENARIO_LIMITS.gridNodes} nodes, got 33554432`],
   },
   {
     name: 'unsorted profile',

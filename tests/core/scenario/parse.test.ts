@@ -193,6 +193,6 @@ describe('public API', () => {
     ];
     for (const n of names) expect(core, n).toHaveProperty(n);
     expect(core.FEATURE_TYPES).toEqual(['plane', 'step', 'block', 'rock', 'ramp', 'profile', 'grid']);
-    expect(core.SCENARIO_LIMITS).toMatchObject({ features: 200, payloadItems: 50, profilePoints: 100_000, gridNodes: 4_194_304, pathStations: 100_000 });
+    expect(core.SCENARIO_LIMITS).toMatchObject({ features: 200, payloadItems: 50, profilePoints: 100_000, gridNodes: 16_777_216, pathStations: 100_000 });
   });
 });
