@@ -14,6 +14,9 @@ export interface SceneApi {
   readonly labels: (HTMLElement | null)[];
   /** Anchor of each label in the terrain frame (m), written by <Wheel>. */
   readonly labelAnchors: Float64Array;
+  /** The tip-edge label (DOM) and its anchor, the edge's midpoint in the terrain frame (m); written by <TipEdge>. */
+  tipLabel: HTMLElement | null;
+  readonly tipAnchor: Float64Array;
   /** Set by <CameraRig>: move the camera to a preset view of the vehicle. */
   view: (preset: ViewPreset) => void;
   /** Set by <CameraRig>: ask for one frame. */
@@ -29,6 +32,8 @@ export function makeSceneApi(): SceneApi {
     grabbable: [],
     labels: [null, null, null, null],
     labelAnchors: new Float64Array(12),
+    tipLabel: null,
+    tipAnchor: new Float64Array(3),
     view: () => undefined,
     invalidate: () => undefined,
     cameraState: () => null,

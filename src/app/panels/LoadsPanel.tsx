@@ -4,11 +4,14 @@ import { statusWords, warningsFor } from '../../present/words';
 import { loadShareColour } from '../../present/palette';
 import { usePlumb, usePlumbStore } from '../../store/react';
 import { shownResult } from '../../store/store';
+import { tipSentence } from '../../present/tipWords';
+import { tipViewOf } from '../../view/tipState';
 
 /** Side table: the four tyre loads, weight, margins and warnings in words. */
 export function LoadsPanel() {
   const store = usePlumbStore();
   const r = usePlumb(shownResult);
+  const tip = usePlumb(tipViewOf);
   const shown = usePlumb((s) => s.shown);
   const units = usePlumb((s) => s.units);
   const friction = usePlumb((s) => s.scenario.friction);
@@ -31,10 +34,16 @@ export function LoadsPanel() {
       </p>
       {!r.standing ? (
         <p className="danger" role="alert" data-testid="pose-not-standing" data-status={r.status}>
-          Goes over: this pose does not stand ({statusWords(r.status).toLowerCase()}: {r.reason})
-          {r.margins.weakestEdgeWheels.length > 0 ? `; it tips over the ${r.margins.weakestEdgeWheels.join('–')} edge` : ''}. No
-          loads, travel or margins are shown: they would belong to no balance. The vehicle is drawn as a red ghost; the
-          tilt table panel gives the tilt at which it tips.
+          Goes over: this pose does not stand ({statusWords(r.status).toLowerCase()}: {r.reason}).{' '}
+          {tip ? (
+            <span data-testid="pose-tip">
+              {tipSentence({ edge: tip.tip.edge, downhillRad: tip.downhillRad, tipTiltRad: tip.tip.angleRad, tipFromLevelRad: tip.tip.fromLevelRad, poseTiltRad: tip.poseTiltRad })}{' '}
+            </span>
+          ) : (
+            'No stable state was found on the way up from a level table, so no tip edge is drawn. '
+          )}
+          No loads, travel or margins are shown: they would belong to no balance.{' '}
+          {tip ? 'The vehicle is drawn in red as it stands at the tip, with the edge it goes over in magenta.' : 'The vehicle is drawn as a red ghost.'}
         </p>
       ) : null}
       <table className="loads">
