@@ -1,4 +1,4 @@
-import { useMemo, useRef } from 'react';
+import { useEffect, useMemo, useRef } from 'react';
 import * as THREE from 'three';
 import { alongQuaternion } from './adapters';
 import { useSceneApi } from './sceneContext';
@@ -27,6 +27,18 @@ export function TipEdge({ radiusM = 0.035, liftM = 0.04 }: TipEdgeProps) {
   const bar = useRef<THREE.Mesh>(null);
   const ends = [useRef<THREE.Mesh>(null), useRef<THREE.Mesh>(null)];
   const geo = useMemo(() => ({ bar: new THREE.CylinderGeometry(1, 1, 1, 12, 1), end: new THREE.SphereGeometry(1, 12, 8) }), []);
+  useEffect(() => {
+    api.tipEdgeState = () => {
+      const g = group.current;
+      if (!g) return null;
+      const u = g.userData as { edge?: string; fromM?: readonly number[]; toM?: readonly number[] };
+      return { visible: g.visible, edge: u.edge ?? '', fromM: u.fromM ?? [], toM: u.toM ?? [] };
+    };
+    return () => {
+      api.tipEdgeState = () => null;
+    };
+  }, [api]);
+  useEffect(() => () => (geo.bar.dispose(), geo.end.dispose()), [geo]);
   useSolved((s) => {
     const g = group.current;
     if (!g || !bar.current) return;

@@ -23,6 +23,8 @@ export interface SceneApi {
   invalidate: () => void;
   /** Set by <CameraRig>: the camera's position and the point it orbits (world frame), for tests and the benchmark. */
   cameraState: () => { position: [number, number, number]; target: [number, number, number] } | null;
+  /** Set by <TipEdge>: whether the tip edge is drawn, its tyres and ends (terrain frame, m), for tests. */
+  tipEdgeState: () => { visible: boolean; edge: string; fromM: readonly number[]; toM: readonly number[] } | null;
   /** Frame statistics for the benchmark script (window.__plumbline). */
   readonly stats: { frames: number; dragEvents: number; dragMs: number; firstFrameMs: number | null };
 }
@@ -37,6 +39,7 @@ export function makeSceneApi(): SceneApi {
     view: () => undefined,
     invalidate: () => undefined,
     cameraState: () => null,
+    tipEdgeState: () => null,
     stats: { frames: 0, dragEvents: 0, dragMs: 0, firstFrameMs: null },
   };
 }

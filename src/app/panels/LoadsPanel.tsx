@@ -59,11 +59,11 @@ export function LoadsPanel() {
         <tbody>
           {r.wheels.map((w) => {
             return (
-              <tr key={w.name} className={w.lifted ? 'lifted' : undefined} data-testid={`table-load-${w.name}`}>
+              <tr key={w.name} className={w.lifted && r.standing ? 'lifted' : undefined} data-testid={`table-load-${w.name}`}>
                 <th scope="row">
                   <span className="swatch" style={{ background: loadShareColour(w.loadShare) }} aria-hidden="true" /> {w.name}
                 </th>
-                <td>{w.lifted ? <strong>LIFTED</strong> : scaleText(w.verticalLoadN, units)}</td>
+                <td>{w.lifted && r.standing ? <strong>LIFTED</strong> : scaleText(w.verticalLoadN, units)}</td>
                 <td>{forceText(w.loadN, units)}</td>
                 <td>{percentText(w.loadShare)}</td>
                 <td>
