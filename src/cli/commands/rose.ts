@@ -62,7 +62,7 @@ export function roseSummaryLines(r: RoseResult): string[] {
   named.forEach((d, i) => {
     out.push(sameDirection(d.downhillRad, sp.weakestTip.downhillRad) ? `${downhillWords(d.downhillRad)}: the weakest direction, above` : lines[2 + i]);
   });
-  out.push(...lines.slice(2 + named.length));
+  for (let i = 2 + named.length; i < lines.length; i++) out.push(lines[i]);
   const lift = r.weakestLift;
   if (!lift.firstLift) out.push('earliest wheel lift: none before the tip in any direction');
   else if (!sameDirection(lift.downhillRad, sp.weakestTip.downhillRad)) {
