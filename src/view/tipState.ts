@@ -9,7 +9,7 @@
  */
 import { solveEquilibrium, tiltSweep, type SolveResult, type TiltTip } from '../core';
 import { RAD_PER_DEG } from '../present/units';
-import { shownModel, shownPose, shownResult, type PlumbState } from '../store/store';
+import { shownModel, shownPose, shownResult, shownVehicle, type PlumbState } from '../store/store';
 
 type V3 = readonly [number, number, number];
 
@@ -31,6 +31,12 @@ const BELOW_TIP_RAD = [0.02, 0.1, 0.5, 1].map((d) => d * RAD_PER_DEG);
 
 const cache = new WeakMap<SolveResult, TipView | null>();
 
+/**
+ * The last tip found, with what it depends on: the same vehicle, ground, pose, downhill direction
+ * and grip give the same tip whatever the table tilt past it, so raising the tilt further reuses it.
+ */
+let last: { key: readonly unknown[]; view: TipView } | null = null;
+
 /** The tip view of what the scene shows now (memoised on the result object). */
 export function tipViewOf(s: PlumbState): TipView | null {
   const r = shownResult(s);
@@ -46,6 +52,16 @@ function computeTipView(s: PlumbState): TipView | null {
   const model = shownModel(s);
   const pose = shownPose(s);
   const { downhillRad, angleRad } = s.scenario.tilt;
+  const key = [model, shownVehicle(s), s.scenario.terrain, pose, downhillRad, s.scenario.friction];
+  if (last && last.key.length === key.length && last.key.every((k, i) => k === key[i]) && last.view.tip.angleRad < angleRad) {
+    return { ...last.view, poseTiltRad: angleRad };
+  }
+  const v = sweepToTip(s, model, pose, downhillRad, angleRad);
+  last = v ? { key, view: v } : null;
+  return v;
+}
+
+function sweepToTip(s: PlumbState, model: ReturnType<typeof shownModel>, pose: ReturnType<typeof shownPose>, downhillRad: number, angleRad: number): TipView | null {
   const sweep = tiltSweep(model, pose, { downhillRad, friction: s.scenario.friction, findSlide: false, maxAngleRad: Math.max(angleRad, 1 * RAD_PER_DEG) });
   const tip = sweep.tip;
   if (!tip || tip.reason === 'does-not-stand-at-start') return null;

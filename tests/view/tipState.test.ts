@@ -73,6 +73,32 @@ describe('tipViewOf', () => {
   });
 });
 
+describe('tipViewOf as the table is raised further or turned', () => {
+  it('reuses the tip while only the tilt grows past it; another downhill direction gives its own downhill edge', () => {
+    const store = createPlumbStore(scenario(60));
+    const a = tipViewOf(store.getState());
+    expect(a).not.toBeNull();
+    store.getState().setTilt({ angleRad: 65 * DEG });
+    const b = tipViewOf(store.getState());
+    // The same vehicle, ground, pose and direction: the same state at the tip, the pose 5° further past it.
+    expect(b?.atTip).toBe(a?.atTip);
+    expect(b!.poseTiltRad).toBeCloseTo(65 * DEG, 12);
+    expect(b!.poseTiltRad - b!.tip.angleRad).toBeCloseTo(a!.poseTiltRad - a!.tip.angleRad + 5 * DEG, 12);
+    // Right side down: it goes over its downhill (right) contact line (REFERENCES "Rollover of a rigid
+    // vehicle"), and later than left side down, since the demo ground already falls 20° to the left.
+    store.getState().setTilt({ angleRad: 75 * DEG, downhillRad: 270 * DEG });
+    const c = tipViewOf(store.getState());
+    expect(c).not.toBeNull();
+    expect([...c!.tip.edge].sort()).toEqual(['FR', 'RR']);
+    for (const p of [c!.edgeFromM, c!.edgeToM]) expect(p[1]).toBeLessThan(-0.5);
+    expect(c!.tip.angleRad).toBeGreaterThan(a!.tip.angleRad + 20 * DEG);
+    // On a plane the ground's slope from level at the tip is nearly the same either way: the two differ
+    // only through the CG's 1 cm lateral offset (rigid: d/dy atan((T/2 + w/2 − y)/h) · 2y ≈ 2y·cos²θ/h
+    // ≈ 0.9° at θ ≈ 39°, h = 0.79 m), so within 1.5°.
+    expect(Math.abs(c!.tip.fromLevelRad - a!.tip.fromLevelRad)).toBeLessThan(1.5 * DEG);
+  });
+});
+
 describe('tip edge in words', () => {
   it('names the side from the edge tyres (wheel order FL, FR, RL, RR)', () => {
     expect(tipSideWords(['FL', 'RL'])).toBe('the left side');
