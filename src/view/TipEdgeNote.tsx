@@ -38,7 +38,8 @@ export function TipEdgeNote() {
         </div>
       </div>
       <p className="tip-edge-note" role="status" data-testid="tip-edge" data-edge={tv.tip.edge.join(',')} data-tip-deg={String(radToDeg(tv.tip.angleRad))}>
-        {sentence} The vehicle is drawn as it stands at the tip, in red; the magenta bar is the edge it goes over.
+        {sentence}{' '}
+        <span className="tip-edge-more">The vehicle is drawn as it stands at the tip, in red; the magenta bar is the edge it goes over.</span>
       </p>
     </>
   );
