@@ -40,7 +40,7 @@ export function LoadsPanel() {
               {tipSentence({ edge: tip.tip.edge, downhillRad: tip.downhillRad, tipTiltRad: tip.tip.angleRad, tipFromLevelRad: tip.tip.fromLevelRad, poseTiltRad: tip.poseTiltRad })}{' '}
             </span>
           ) : (
-            'It does not stand even with the table level (the ground as it lies), so there is no tip to draw. '
+            'No stable state on the way up from the table level (the ground as it lies) was found to draw at the tip, so no tip edge is shown. '
           )}
           No loads, travel or margins are shown: they would belong to no balance.{' '}
           {tip ? 'The vehicle is drawn in red as it stands at the tip, with the edge it goes over in magenta.' : 'The vehicle is drawn as a red ghost.'}
