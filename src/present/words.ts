@@ -193,7 +193,8 @@ export function warningsFor(r: Pick<SolveResult, 'status' | 'reason' | 'margins'
   } else if (r.status === 'unstable') {
     out.push({ level: 'danger', text: `Does not stand: the only balance found here is unstable (${r.reason}); it goes over.` });
   }
-  const lifted = r.wheels.filter((w) => w.lifted).map((w) => w.name);
+  // A pose that does not stand has no tyres it stands on: its lifted flags belong to no balance.
+  const lifted = r.status === 'converged' ? r.wheels.filter((w) => w.lifted).map((w) => w.name) : [];
   if (lifted.length > 0) {
     out.push({
       level: 'danger',

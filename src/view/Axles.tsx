@@ -1,7 +1,8 @@
 import { useRef } from 'react';
 import * as THREE from 'three';
 import { usePlumb } from '../store/react';
-import { shownModel, shownPose, shownResult, shownVehicle } from '../store/store';
+import { shownModel, shownPose, shownVehicle } from '../store/store';
+import { drawnResult } from './tipState';
 import { alongQuaternion, bodyMatrix } from './adapters';
 import { useSolved } from './useSolved';
 
@@ -24,7 +25,7 @@ export function Axles({ radiusM = 0.045 }: AxlesProps) {
   const solidFront = usePlumb((s) => shownVehicle(s).suspensionFront.type === 'solid');
   const solidRear = usePlumb((s) => shownVehicle(s).suspensionRear.type === 'solid');
   useSolved((s) => {
-    const r = shownResult(s);
+    const r = drawnResult(s);
     const model = shownModel(s);
     bodyMatrix(model, shownPose(s), r, _m);
     for (let axle = 0; axle < 2; axle++) {

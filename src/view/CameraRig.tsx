@@ -3,7 +3,8 @@ import { useFrame, useThree } from '@react-three/fiber';
 import { OrbitControls } from '@react-three/drei/core/OrbitControls';
 import * as THREE from 'three';
 import { usePlumbStore } from '../store/react';
-import { shownPose, shownResult } from '../store/store';
+import { shownPose } from '../store/store';
+import { drawnResult } from './tipState';
 import { RAD_PER_DEG as DEG } from '../present/units';
 import { useSceneApi, type ViewPreset } from './sceneContext';
 
@@ -56,7 +57,8 @@ export function CameraRig({ distanceM = 10, minDistanceM = 2, maxDistanceM = 80 
 
     /** The vehicle's reference point, in world (tilted) coordinates. */
     const vehicleTarget = (out: THREE.Vector3): THREE.Vector3 => {
-      const c3 = shownResult(store.getState()).body.cgWorld;
+      // The vehicle as drawn: at the tip when the pose does not stand (tipState.ts).
+      const c3 = drawnResult(store.getState()).body.cgWorld;
       out.set(c3[0], c3[1], c3[2] * 0.5);
       const t = table();
       if (t) {

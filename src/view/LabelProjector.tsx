@@ -28,6 +28,18 @@ export function LabelProjector({ tableName = 'tilt-table' }: LabelProjectorProps
       el.style.transform = `translate(-50%, -100%) translate(${x.toFixed(1)}px, ${y.toFixed(1)}px)`;
       el.style.visibility = behind ? 'hidden' : 'visible';
     }
+    const tl = api.tipLabel;
+    if (tl && tl.dataset.shown === 'true') {
+      const t = api.tipAnchor;
+      _p.set(t[0], t[1], t[2]);
+      if (table) _p.applyMatrix4(table.matrixWorld);
+      _p.project(camera);
+      const behind = _p.z > 1;
+      const x = (_p.x * 0.5 + 0.5) * size.width;
+      const y = (-_p.y * 0.5 + 0.5) * size.height;
+      tl.style.transform = `translate(-50%, 0) translate(${x.toFixed(1)}px, ${y.toFixed(1)}px)`;
+      tl.style.visibility = behind ? 'hidden' : 'visible';
+    }
   });
   return null;
 }

@@ -16,6 +16,8 @@ import { SceneContext, makeSceneApi, type SceneApi, type ViewPreset } from './sc
 import { SupportPolygon } from './SupportPolygon';
 import { TerrainMesh } from './TerrainMesh';
 import { TiltTable } from './TiltTable';
+import { TipEdge } from './TipEdge';
+import { TipEdgeNote } from './TipEdgeNote';
 import { VehicleBody } from './VehicleBody';
 import { Wheel } from './Wheel';
 import { WheelLabel } from './WheelLabel';
@@ -62,6 +64,7 @@ export function Scene({ onApi }: SceneProps) {
                 <LoadColumn key={i} index={i} />
               ))}
               <SupportPolygon />
+              <TipEdge />
               <PlumbLine />
               <GhostVehicle />
               <PathLine />
@@ -77,6 +80,7 @@ export function Scene({ onApi }: SceneProps) {
             <WheelLabel key={i} index={i} />
           ))}
         </div>
+        <TipEdgeNote />
         <PathDrawMarkers />
         <div className="view-buttons" role="group" aria-label="Preset views">
           {PRESETS.map(([p, label]) => (

@@ -1,7 +1,7 @@
 import { useMemo, useRef } from 'react';
 import * as THREE from 'three';
 import { useSolved } from './useSolved';
-import { shownResult } from '../store/store';
+import { drawnResult } from './tipState';
 
 export interface SupportPolygonProps {
   /** Most hull vertices drawn. */
@@ -32,7 +32,7 @@ export function SupportPolygon({ maxVertices = 64, liftM = 0.025 }: SupportPolyg
     };
   }, [maxVertices]);
   useSolved((s) => {
-    const r = shownResult(s);
+    const r = drawnResult(s);
     const poly = r.supportPolygonWorld;
     const n = Math.min(poly.length, maxVertices);
     const gd = r.gravityDirWorld;

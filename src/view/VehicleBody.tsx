@@ -2,6 +2,7 @@ import { useEffect, useMemo, useRef } from 'react';
 import * as THREE from 'three';
 import { usePlumb } from '../store/react';
 import { shownModel, shownPose, shownResult, shownVehicle } from '../store/store';
+import { drawnResult } from './tipState';
 import { bodyMatrix } from './adapters';
 import { useSceneApi } from './sceneContext';
 import { useSolved } from './useSolved';
@@ -45,7 +46,8 @@ export function VehicleBody({ opacity = 0.28 }: VehicleBodyProps) {
   useSolved((s) => {
     const g = group.current;
     if (!g) return;
-    bodyMatrix(shownModel(s), shownPose(s), shownResult(s), g.matrix);
+    // A pose that does not stand is drawn as it stands at the tip (tipState.ts), never as the solver's last state.
+    bodyMatrix(shownModel(s), shownPose(s), drawnResult(s), g.matrix);
     g.matrixWorldNeedsUpdate = true;
   });
   return (

@@ -1,7 +1,8 @@
 import { useMemo, useRef } from 'react';
 import * as THREE from 'three';
 import { usePlumb } from '../store/react';
-import { shownResult, shownVehicle } from '../store/store';
+import { shownVehicle } from '../store/store';
+import { drawnResult } from './tipState';
 import { alongQuaternion } from './adapters';
 import { useSceneApi } from './sceneContext';
 import { useSolved } from './useSolved';
@@ -51,7 +52,7 @@ export function Wheel({ index, labelLiftM = 0.3 }: WheelProps) {
   useSolved((s) => {
     const g = group.current;
     if (!g || !solid.current || !hollow.current) return;
-    const w = shownResult(s).wheels[index];
+    const w = drawnResult(s).wheels[index];
     g.position.set(w.centreWorld[0], w.centreWorld[1], w.centreWorld[2]);
     alongQuaternion(w.axisWorld, g.quaternion);
     solid.current.visible = !w.lifted;

@@ -17,19 +17,27 @@ export function WheelLabel({ index }: WheelLabelProps) {
   const api = useSceneApi();
   const units = usePlumb((s) => s.units);
   const w = usePlumb((s) => shownResult(s).wheels[index]);
+  // A pose that does not stand: the name only (no load, and no lift of a state that is no balance).
+  const standing = usePlumb((s) => shownResult(s).standing);
+  const lifted = w.lifted && standing;
   const name = WHEEL_NAMES[index];
   return (
     <div
       ref={(el) => {
         api.labels[index] = el;
       }}
-      className={w.lifted ? 'wheel-label lifted' : 'wheel-label'}
+      className={lifted ? 'wheel-label lifted' : 'wheel-label'}
       data-testid={`wheel-load-${name}`}
-      data-lifted={w.lifted ? 'true' : 'false'}
+      data-lifted={lifted ? 'true' : 'false'}
     >
-      <b>{name}</b> {w.lifted ? <strong className="lifted-word">LIFTED</strong> : null}{' '}
-      <span className="load-number">{scaleText(w.verticalLoadN, units)}</span>{' '}
-      <span className="load-share">{percentText(w.loadShare)} of static</span>
+      <b>{name}</b> {lifted ? <strong className="lifted-word">LIFTED</strong> : null}
+      {standing ? (
+        <>
+          {' '}
+          <span className="load-number">{scaleText(w.verticalLoadN, units)}</span>{' '}
+          <span className="load-share">{percentText(w.loadShare)} of static</span>
+        </>
+      ) : null}
     </div>
   );
 }

@@ -14,12 +14,17 @@ export interface SceneApi {
   readonly labels: (HTMLElement | null)[];
   /** Anchor of each label in the terrain frame (m), written by <Wheel>. */
   readonly labelAnchors: Float64Array;
+  /** The tip-edge label (DOM) and its anchor, the edge's midpoint in the terrain frame (m); written by <TipEdge>. */
+  tipLabel: HTMLElement | null;
+  readonly tipAnchor: Float64Array;
   /** Set by <CameraRig>: move the camera to a preset view of the vehicle. */
   view: (preset: ViewPreset) => void;
   /** Set by <CameraRig>: ask for one frame. */
   invalidate: () => void;
   /** Set by <CameraRig>: the camera's position and the point it orbits (world frame), for tests and the benchmark. */
   cameraState: () => { position: [number, number, number]; target: [number, number, number] } | null;
+  /** Set by <TipEdge>: whether the tip edge is drawn, its tyres and ends (terrain frame, m), for tests. */
+  tipEdgeState: () => { visible: boolean; edge: string; fromM: readonly number[]; toM: readonly number[] } | null;
   /** Frame statistics for the benchmark script (window.__plumbline). */
   readonly stats: { frames: number; dragEvents: number; dragMs: number; firstFrameMs: number | null };
 }
@@ -29,9 +34,12 @@ export function makeSceneApi(): SceneApi {
     grabbable: [],
     labels: [null, null, null, null],
     labelAnchors: new Float64Array(12),
+    tipLabel: null,
+    tipAnchor: new Float64Array(3),
     view: () => undefined,
     invalidate: () => undefined,
     cameraState: () => null,
+    tipEdgeState: () => null,
     stats: { frames: 0, dragEvents: 0, dragMs: 0, firstFrameMs: null },
   };
 }

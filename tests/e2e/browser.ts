@@ -33,10 +33,16 @@ export async function waitForScene(page: Page): Promise<void> {
 
 /**
  * A page in a fresh context (no service worker from an earlier test) that collects uncaught page
- * errors and console errors, the harmless ones aside, into `errors`.
+ * errors and console errors, the harmless ones aside, into `errors`. `device` emulates a phone or
+ * tablet (touch, mobile viewport, pixel ratio).
  */
-export async function watchedPage(browser: Browser, errors: string[], viewport = { width: 1280, height: 800 }): Promise<Page> {
-  const context = await browser.newContext({ viewport, serviceWorkers: 'block' });
+export async function watchedPage(
+  browser: Browser,
+  errors: string[],
+  viewport = { width: 1280, height: 800 },
+  device: { hasTouch?: boolean; isMobile?: boolean; deviceScaleFactor?: number } = {},
+): Promise<Page> {
+  const context = await browser.newContext({ viewport, serviceWorkers: 'block', ...device });
   const page = await context.newPage();
   page.on('pageerror', (e) => errors.push(e.message));
   page.on('console', (m) => {

@@ -1,5 +1,6 @@
-import { useState } from 'react';
+import { useMemo, useState } from 'react';
 import type { LineSummary, Scenario, SweepRange } from '../../core';
+import { lineRows } from './LinesPanelRows';
 import { runLines, type LineSweepReply } from '../../worker/client';
 import { RAD_PER_DEG, angleText, changeText, distanceText } from '../../present/units';
 import { filledLinesWords } from '../../present/words';
@@ -46,6 +47,9 @@ export function LinesPanel() {
   const [headings, setHeadings] = useState<SweepRange>({ from: -5 * RAD_PER_DEG, to: 5 * RAD_PER_DEG, step: 5 * RAD_PER_DEG });
   const [done, setDone] = useState<Done | null>(null);
   const { progress, message, run, cancel } = useWorkerJob();
+  // Ranks as the core gives them: lines whose margins differ by no more than the method's
+  // resolution (0.1°) share a rank and are marked tied (src/core/analysis/lines.ts rankLines).
+  const { rows, resolutionRad } = useMemo(() => lineRows(done?.ranked ?? []), [done]);
   if (!scenario.path) {
     return (
       <section className="panel" aria-labelledby="lines-h">
@@ -68,7 +72,8 @@ export function LinesPanel() {
     );
   };
   const ranked = done?.ranked ?? [];
-  const list: { line: LineSummary; rank: number }[] = ranked.map((line, i) => ({ line, rank: i + 1 }));
+  const list = rows.map((r, pos) => ({ ...r, pos }));
+  const worstRank = list.length > 0 ? list[list.length - 1].rank : 0;
   const shown = list.length <= SHOWN_LINES ? list : [...list.slice(0, SHOWN_LINES / 2), ...list.slice(-SHOWN_LINES / 2)];
   const words = (l: LineSummary): string => {
     const parts = [`force-angle margin ${angleText(l.minForceAngleRad)} at ${distanceText(l.minMarginDistanceM, units)}`];
@@ -108,13 +113,19 @@ export function LinesPanel() {
           <div data-testid="lines-result">
             {stale ? <p className="hint">The scenario changed since this sweep: run it again.</p> : null}
             <ol className="lines" data-testid="lines-list">
-              {shown.map(({ line, rank }, k) => (
-                <li key={line.index} value={rank} className={chosen === line.path ? 'chosen' : undefined}>
+              {shown.map(({ line, rank, tied, pos }, k) => (
+                <li key={line.index} value={rank} className={chosen === line.path ? 'chosen' : undefined} data-testid="lines-item" data-rank={rank} data-tied={tied}>
                   {k === SHOWN_LINES / 2 && list.length > SHOWN_LINES ? <span className="gap">…</span> : null}
-                  <button type="button" className="link" data-testid={`lines-row-${rank - 1}`} onClick={() => store.getState().setOverlayPath(line.path)}>
-                    {rank === 1 ? 'Best: ' : rank === list.length ? 'Worst: ' : ''}
+                  <button type="button" className="link" data-testid={`lines-row-${pos}`} onClick={() => store.getState().setOverlayPath(line.path)}>
+                    {rank === 1 ? 'Best: ' : rank === worstRank ? 'Worst: ' : ''}
                     offset {changeText('distance', line.offsetM, units)}, heading {changeText('angle', line.headingChangeRad, units)}: {words(line)}
                   </button>
+                  {tied > 0 ? (
+                    <span className="tied" data-testid="lines-tied">
+                      {' '}
+                      tied (rank {rank}) with {tied} other{tied === 1 ? '' : 's'}: margins within {angleText(resolutionRad)}
+                    </span>
+                  ) : null}
                 </li>
               ))}
             </ol>
@@ -132,7 +143,8 @@ export function LinesPanel() {
               </button>
             </div>
             <p className="fineprint">
-              {ranked.length} lines in {done.wallMs.toFixed(0)} ms on {done.workers} {done.workers === 1 ? 'worker' : 'workers'}. The drawn line (blue) is the one picked; the dark line is the scenario path. Static margins only: keep far inside them.
+              Ranked only where the smallest force-angle margins differ by more than {angleText(resolutionRad)}, the method&apos;s
+              resolution (the pass looks at its stations only); closer lines share a rank and are marked tied. {ranked.length} lines in {done.wallMs.toFixed(0)} ms on {done.workers} {done.workers === 1 ? 'worker' : 'workers'}. The drawn line (blue) is the one picked; the dark line is the scenario path. Static margins only: keep far inside them.
             </p>
           </div>
         ) : null}

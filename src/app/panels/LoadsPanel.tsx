@@ -4,11 +4,14 @@ import { statusWords, warningsFor } from '../../present/words';
 import { loadShareColour } from '../../present/palette';
 import { usePlumb, usePlumbStore } from '../../store/react';
 import { shownResult } from '../../store/store';
+import { tipSentence } from '../../present/tipWords';
+import { tipViewOf } from '../../view/tipState';
 
 /** Side table: the four tyre loads, weight, margins and warnings in words. */
 export function LoadsPanel() {
   const store = usePlumbStore();
   const r = usePlumb(shownResult);
+  const tip = usePlumb(tipViewOf);
   const shown = usePlumb((s) => s.shown);
   const units = usePlumb((s) => s.units);
   const friction = usePlumb((s) => s.scenario.friction);
@@ -31,10 +34,16 @@ export function LoadsPanel() {
       </p>
       {!r.standing ? (
         <p className="danger" role="alert" data-testid="pose-not-standing" data-status={r.status}>
-          Goes over: this pose does not stand ({statusWords(r.status).toLowerCase()}: {r.reason})
-          {r.margins.weakestEdgeWheels.length > 0 ? `; it tips over the ${r.margins.weakestEdgeWheels.join('–')} edge` : ''}. No
-          loads, travel or margins are shown: they would belong to no balance. The vehicle is drawn as a red ghost; the
-          tilt table panel gives the tilt at which it tips.
+          Goes over: this pose does not stand ({statusWords(r.status).toLowerCase()}: {r.reason}).{' '}
+          {tip ? (
+            <span data-testid="pose-tip">
+              {tipSentence({ edge: tip.tip.edge, downhillRad: tip.downhillRad, tipTiltRad: tip.tip.angleRad, tipFromLevelRad: tip.tip.fromLevelRad, poseTiltRad: tip.poseTiltRad })}{' '}
+            </span>
+          ) : (
+            'No stable state on the way up from the table level (the ground as it lies) was found to draw at the tip, so no tip edge is shown. '
+          )}
+          No loads, travel or margins are shown: they would belong to no balance.{' '}
+          {tip ? 'The vehicle is drawn in red as it stands at the tip, with the edge it goes over in magenta.' : 'The vehicle is drawn as a red ghost.'}
         </p>
       ) : null}
       <table className="loads">
@@ -50,11 +59,11 @@ export function LoadsPanel() {
         <tbody>
           {r.wheels.map((w) => {
             return (
-              <tr key={w.name} className={w.lifted ? 'lifted' : undefined} data-testid={`table-load-${w.name}`}>
+              <tr key={w.name} className={w.lifted && r.standing ? 'lifted' : undefined} data-testid={`table-load-${w.name}`}>
                 <th scope="row">
                   <span className="swatch" style={{ background: loadShareColour(w.loadShare) }} aria-hidden="true" /> {w.name}
                 </th>
-                <td>{w.lifted ? <strong>LIFTED</strong> : scaleText(w.verticalLoadN, units)}</td>
+                <td>{w.lifted && r.standing ? <strong>LIFTED</strong> : scaleText(w.verticalLoadN, units)}</td>
                 <td>{forceText(w.loadN, units)}</td>
                 <td>{percentText(w.loadShare)}</td>
                 <td>

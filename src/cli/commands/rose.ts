@@ -3,7 +3,7 @@ import { buildModel, spareFromRose, stabilityRose, type RoseDirection, type Rose
 import { RAD_PER_DEG, directionText } from '../../present/units';
 import { QUASI_STATIC_CAUTION, downhillWords, filledSpotWords, spareLines } from '../../present/words';
 import { EXIT_BAD_INPUT, EXIT_OK, type CommandSpec } from '../command';
-import { formatKeyValues, formatTable } from '../format';
+import { formatTable } from '../format';
 import { loadScenarioFile, toJsonText } from '../load';
 import { deg, formatCsv, progressReporter } from '../analysisOutput';
 import { angleWords } from './tilt';
@@ -37,10 +37,39 @@ export function roseJson(r: RoseResult, onTerrain: boolean): object {
   };
 }
 
-/** Words for a downhill direction (vehicle frame): "90° (left side down)", "100°". */
+/** Words for a downhill direction (vehicle frame): "90° (left side down)", "100° from the nose, counter-clockwise". */
 function directionWords(rad: number): string {
   const w = downhillWords(rad);
-  return /down$/.test(w) ? `${directionText(rad)} (${w})` : directionText(rad);
+  return /down$/.test(w) ? `${directionText(rad)} (${w})` : w;
+}
+
+/** Two downhill directions the same, whole turns apart or not (rad). */
+const sameDirection = (a: number, b: number): boolean => {
+  const d = (a - b) / (2 * Math.PI);
+  return Math.abs(d - Math.round(d)) < 1e-9;
+};
+
+/**
+ * The human summary above the table: the slope to spare (the weakest direction once, then the four
+ * named ones; a named one that is the weakest points back to it rather than repeating it), and the
+ * earliest wheel lift only where it is in another direction than the weakest (else it is in that line).
+ */
+export function roseSummaryLines(r: RoseResult): string[] {
+  const sp = spareFromRose(r);
+  const lines = spareLines(sp);
+  // spareLines: the heading, the weakest direction, then one line per named direction in the order of sp.cardinals.
+  const named = Object.values(sp.cardinals);
+  const out = [lines[0], lines[1].replace(/^weakest direction [^:]*:/, `weakest direction ${directionWords(sp.weakestTip.downhillRad)}:`)];
+  named.forEach((d, i) => {
+    out.push(sameDirection(d.downhillRad, sp.weakestTip.downhillRad) ? `${downhillWords(d.downhillRad)}: the weakest direction, above` : lines[2 + i]);
+  });
+  for (let i = 2 + named.length; i < lines.length; i++) out.push(lines[i]);
+  const lift = r.weakestLift;
+  if (!lift.firstLift) out.push('earliest wheel lift: none before the tip in any direction');
+  else if (!sameDirection(lift.downhillRad, sp.weakestTip.downhillRad)) {
+    out.push(`earliest wheel lift: ${lift.firstLift.wheel} at ${angleWords(lift.firstLift)}, ${directionWords(lift.downhillRad)}`);
+  }
+  return out;
 }
 
 export const roseCommand: CommandSpec = {
@@ -94,20 +123,9 @@ export const roseCommand: CommandSpec = {
       );
     } else {
       io.out(`${s.name}: ${s.vehicle.name}, ${onTerrain ? 'on the scenario terrain' : 'level tilt table'}, every ${stepDeg}°`);
-      io.out(
-        formatKeyValues([
-          ['weakest direction (tip)', `${directionWords(r.weakest.downhillRad)}: tips at ${r.weakest.tip ? angleWords(r.weakest.tip) : `> ${deg(r.maxAngleRad, 0)}°`}`],
-          [
-            'earliest wheel lift',
-            r.weakestLift.firstLift
-              ? `${r.weakestLift.firstLift.wheel} at ${angleWords(r.weakestLift.firstLift)}, ${directionWords(r.weakestLift.downhillRad)}`
-              : 'none before the tip',
-          ],
-        ]),
-      );
-      io.out('');
-      for (const line of spareLines(spareFromRose(r))) io.out(line);
-      const filledNote = filledSpotWords(r.filledWheels); if (filledNote) io.out(filledNote);
+      for (const line of roseSummaryLines(r)) io.out(line);
+      const filledNote = filledSpotWords(r.filledWheels);
+      if (filledNote) io.out(filledNote);
       io.out('');
       io.out(
         formatTable(
