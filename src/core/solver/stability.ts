@@ -23,10 +23,11 @@
  *    (no ray casts beyond one full evaluation). When that puts the smallest eigenvalue near zero
  *    (below EXACT_BELOW) the full equations decide, since the linearisation freezes the contact
  *    geometry and can misjudge the sign near a fold: first along the softest mode only (central
- *    differences of the full equations along it: two ray casts, refineAlongMode), kept when the
- *    Rayleigh quotient there is provably within REFINE_TOL of the full matrix's smallest eigenvalue
- *    (Kato–Temple bound); else, and for every unstable verdict, the whole matrix over the full
- *    equations (fourteen ray casts, or twenty-eight: see exactCheck).
+ *    differences of the full equations along it: two ray casts, four where the first verdict is
+ *    unstable, refineAlongMode), kept when the Rayleigh quotient there is provably within
+ *    REFINE_TOL of the full matrix's smallest eigenvalue (Kato–Temple bound) and its sign is
+ *    decided; else the whole matrix over the full equations (fourteen ray casts, or twenty-eight:
+ *    see exactCheck).
  *  - Coordinates are made dimensionless (lengths divided by the wheelbase L) and forces scaled by
  *    the weight W, so K is in units of W·L per unit of coordinate²; the grip held fixed makes K
  *    slightly non-symmetric, so its symmetric part (K + Kᵀ)/2 is taken (the part that does work
@@ -496,24 +497,48 @@ export const REFINE_TOL = 1e-3;
 /**
  * The full equations along the cheap softest mode v only (after eigenOf put it in scratch.mode and
  * the eigenvalues, ascending, in scratch.eig): w = K_full·v by central differences of the full
- * equations (two ray casts, then one at the state to leave the buffers there), ρ = vᵀw (the
- * Rayleigh quotient: never below the full matrix's smallest eigenvalue) and the residual
- * s = w − ρv − (antisymmetric part of the cheap K)·v, i.e. that of the symmetric part. By the
- * Kato–Temple inequality (Parlett, The Symmetric Eigenvalue Problem, §10.3) the smallest eigenvalue
- * λ₁ of the full matrix satisfies ρ − |s|²/(β − ρ) ≤ λ₁ ≤ ρ for any β ≤ λ₂ above ρ; β is the cheap
- * second-smallest eigenvalue less half its gap to ρ (the linearisation misses a few hundredths:
- * module comment). ρ is returned when that bound is within REFINE_TOL and ρ is a stable verdict
- * (an unstable one goes to the whole matrix and exactCheck's longer step); else null.
+ * equations (two ray casts), ρ = vᵀw (the Rayleigh quotient: never below the full matrix's smallest
+ * eigenvalue) and the residual s = w − ρv − (antisymmetric part of the cheap K)·v, i.e. that of the
+ * symmetric part. By the Kato–Temple inequality (Parlett, The Symmetric Eigenvalue Problem, §10.3)
+ * the smallest eigenvalue λ₁ of the full matrix satisfies ρ − |s|²/(β − ρ) ≤ λ₁ ≤ ρ for any β ≤ λ₂
+ * above ρ; β is the cheap second-smallest eigenvalue less half its gap to ρ (the linearisation
+ * misses a few hundredths: module comment). As in exactCheck, an unstable first verdict is tried
+ * again with a step ten times longer and the larger quotient kept. ρ is returned when that bound is
+ * within REFINE_TOL and decides the sign; else null (the whole matrix is differenced). One more ray
+ * cast at the state leaves the buffers there.
  */
 function refineAlongMode(model: VehicleModel, state: Float64Array, scratch: StabilityScratch, cheap: Stability): Stability | null {
+  const tol = STABILITY_REL_TOL * cheap.maxEigen;
+  let rho = alongMode(model, state, scratch, cheap, EXACT_FD_STEP);
+  let bound = _bound;
+  if (!(rho - bound > -tol)) {
+    const longer = alongMode(model, state, scratch, cheap, 10 * EXACT_FD_STEP);
+    if (longer > rho) {
+      rho = longer;
+      bound = _bound;
+    }
+  }
+  model.residual(state, true, scratch.res);
+  if (!(bound <= REFINE_TOL) || !Number.isFinite(rho)) return null;
+  // The sign must be decided by the bound: a quotient within it of zero goes to the whole matrix.
+  if (!(rho - bound > -tol) && !(rho < -tol)) return null;
+  return { minEigen: rho, maxEigen: cheap.maxEigen, stable: rho - bound > -tol, exact: true };
+}
+
+/** The Kato–Temple bound of the last alongMode call (per W·L; Infinity when it does not apply). */
+let _bound = Infinity;
+
+/** Rayleigh quotient of the full-equation stiffness along scratch.mode with state step h; its bound into _bound. */
+function alongMode(model: VehicleModel, state: Float64Array, scratch: StabilityScratch, cheap: Stability, h: number): number {
   const n = CONFIG_SIZE;
   const v = scratch.mode;
   const second = scratch.eig[1];
-  // The physical step along v: the longest state change EXACT_FD_STEP (as exactCheck takes per coordinate).
+  _bound = Infinity;
+  // The physical step along v: the longest state change h (as exactCheck takes per coordinate).
   let reach = 0;
   for (let j = 0; j < n; j++) reach = Math.max(reach, Math.abs(v[j]) * coordinateLength(model, stateIndex(j)));
-  if (!(reach > 0) || !Number.isFinite(second)) return null;
-  const eps = EXACT_FD_STEP / reach;
+  if (!(reach > 0) || !Number.isFinite(second)) return NaN;
+  const eps = h / reach;
   const q = scratch.q;
   q.set(state);
   for (let j = 0; j < n; j++) q[stateIndex(j)] = state[stateIndex(j)] + eps * v[j] * coordinateLength(model, stateIndex(j));
@@ -523,7 +548,6 @@ function refineAlongMode(model: VehicleModel, state: Float64Array, scratch: Stab
   model.residual(q, true, scratch.res);
   generalisedForces(model, scratch.res, scratch.g0);
   q.set(state);
-  model.residual(q, true, scratch.res);
   const w = scratch.w;
   let rho = 0;
   for (let i = 0; i < n; i++) {
@@ -540,10 +564,6 @@ function refineAlongMode(model: VehicleModel, state: Float64Array, scratch: Stab
     s2 += si * si;
   }
   const beta = second - 0.5 * (second - cheap.minEigen);
-  if (!(beta > rho) || !Number.isFinite(rho)) return null;
-  const bound = s2 / (beta - rho);
-  if (!(bound <= REFINE_TOL)) return null;
-  const stable = rho - bound > -STABILITY_REL_TOL * cheap.maxEigen;
-  if (!stable) return null;
-  return { minEigen: rho, maxEigen: cheap.maxEigen, stable, exact: true };
+  if (beta > rho) _bound = s2 / (beta - rho);
+  return rho;
 }
