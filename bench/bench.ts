@@ -13,6 +13,7 @@ import type { VehicleModel } from '../src/core/solver/model';
 import { STATE_SIZE } from '../src/core/solver/model';
 import { tiltSweep } from '../src/core/solver/tilt';
 import { createStabilityScratch, stabilityOf } from '../src/core/solver/stability';
+import { reusableJacobian } from '../src/core/solver/newton';
 import { TerrainField } from '../src/core/terrain/field';
 import { DEFAULT_TYRE_MODEL, TyreContact, calibrateTyre, evaluateTyre, makeTyreLayout } from '../src/core/tyre/radialSpring';
 import { runLinesParallel } from '../src/cli/parallel';
@@ -94,6 +95,7 @@ export const FIGURE_NAMES = [
   'solve.warm',
   'solve.warmPerEval',
   'solve.stability',
+  'solve.stability.reuse',
   'solve.reference',
   'tilt.sweep',
   'rose.72',
@@ -199,12 +201,16 @@ export async function runBench(opts: BenchOptions = {}): Promise<BenchReport> {
     const converged: Float64Array[] = [];
     const coldRes: SolveResult[] = [];
     const warmRes: SolveResult[] = [];
+    /** Newton's last Jacobian of each warm solve where the acceptance check reuses it (else null). */
+    const warmJ: (Float64Array | null)[] = [];
     for (const p of poses) {
       const back = solveEquilibrium(model, { ...p, xM: p.xM - 0.02 });
       warmFrom.push(back.state);
       const cold = solveEquilibrium(model, p);
       coldRes.push(cold);
       const warm = solveEquilibrium(model, p, { warmStart: back.state });
+      const J = reusableJacobian();
+      warmJ.push(J ? Float64Array.from(J) : null);
       warmRes.push(warm);
       converged.push(warm.state);
     }
@@ -256,8 +262,29 @@ export async function runBench(opts: BenchOptions = {}): Promise<BenchReport> {
           'solve.stability',
           timeRuns(check, P.solve(nPoses)).map((ms) => ms * US_PER_MS),
           'µs',
-          'stability check of a converged pose (tyres evaluated at the state, tangent stiffness by central differences over the tyre linearisation, Jacobi eigenvalues; over the full equations only near zero), rock-garden poses',
+          'stability check of a converged pose by itself (tyres evaluated at the state, tangent stiffness by central differences over the tyre linearisation, Householder + QL eigenvalues; over the full equations only near zero), rock-garden poses',
         ),
+      );
+      // The same check as the warm solve's acceptance runs it: the stiffness from Newton's last
+      // Jacobian (kept from each warm solve above), the eigenvalues; the model placed at the state
+      // by its kinematics only (what the check reads besides the Jacobian).
+      const acceptPoses = warmJ.map((J, i) => (J ? i : -1)).filter((i) => i >= 0);
+      const accept = (k: number) => {
+        const i = acceptPoses[k % acceptPoses.length];
+        model.setPose(poses[i].xM, poses[i].yM, poses[i].headingRad);
+        model.setTilt(0, 0);
+        model.kinematics(converged[i]);
+        stabilityOf(model, converged[i], sc, { fresh: false, exact: false, jacobian: warmJ[i] });
+      };
+      push(
+        acceptPoses.length === 0
+          ? unavailable('solve.stability.reuse', 'µs', 'no warm solve left a Jacobian to reuse')
+          : figure(
+              'solve.stability.reuse',
+              timeRuns(accept, P.solve(acceptPoses.length)).map((ms) => ms * US_PER_MS),
+              'µs',
+              `the check as a warm solve's acceptance runs it: stiffness from Newton's last Jacobian, eigenvalues (${acceptPoses.length} of ${nPoses} warm solves reuse the Jacobian; the others difference the linearisation as solve.stability does)`,
+            ),
       );
       // The reference start where it does the most: the demo vehicle on a 20° side hill at 36
       // headings, no warm start (set down square on the ground, gravity turned to the real one in steps).
