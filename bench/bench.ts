@@ -13,6 +13,7 @@ import type { VehicleModel } from '../src/core/solver/model';
 import { STATE_SIZE } from '../src/core/solver/model';
 import { tiltSweep } from '../src/core/solver/tilt';
 import { createStabilityScratch, stabilityOf } from '../src/core/solver/stability';
+import { reusableJacobian } from '../src/core/solver/newton';
 import { TerrainField } from '../src/core/terrain/field';
 import { DEFAULT_TYRE_MODEL, TyreContact, calibrateTyre, evaluateTyre, makeTyreLayout } from '../src/core/tyre/radialSpring';
 import { runLinesParallel } from '../src/cli/parallel';
@@ -51,6 +52,18 @@ export interface BenchOptions {
   readonly quick?: boolean;
   /** Progress lines (stderr in the CLI). */
   readonly log?: (line: string) => void;
+  /**
+   * Only the figures whose names start with one of these (`solve` takes every solve.* figure,
+   * `rose.72` just that one); a scene runs only when one of its figures is wanted. Empty or
+   * absent: everything.
+   */
+  readonly only?: readonly string[];
+}
+
+/** Whether a figure name is selected by `only` (a prefix of the name, or the whole of it). */
+export function selected(name: string, only: readonly string[] | undefined): boolean {
+  if (!only || only.length === 0) return true;
+  return only.some((p) => name.startsWith(p));
 }
 
 export interface BenchReport {
@@ -82,6 +95,7 @@ export const FIGURE_NAMES = [
   'solve.warm',
   'solve.warmPerEval',
   'solve.stability',
+  'solve.stability.reuse',
   'solve.reference',
   'tilt.sweep',
   'rose.72',
@@ -128,7 +142,9 @@ export async function runBench(opts: BenchOptions = {}): Promise<BenchReport> {
   const log = opts.log ?? (() => {});
   const P = plans(quick);
   const figures: Figure[] = [];
+  const want = (...names: string[]) => names.some((n) => selected(n, opts.only));
   const push = (f: Figure) => {
+    if (!selected(f.name, opts.only)) return;
     figures.push(f);
     log(`${f.name}: ${f.median === null ? 'not available' : `${f.median.toPrecision(4)} ${f.unit}`}`);
   };
@@ -139,7 +155,7 @@ export async function runBench(opts: BenchOptions = {}): Promise<BenchReport> {
   const garden = rockGarden();
 
   // --- 1. One tyre evaluation on a height grid.
-  {
+  if (want('tyre.eval')) {
     const terrain = heightGrid(256);
     const field = new TerrainField(terrain);
     const layout = makeTyreLayout(DEFAULT_TYRE_MODEL);
@@ -177,86 +193,113 @@ export async function runBench(opts: BenchOptions = {}): Promise<BenchReport> {
   }
 
   // --- 2, 3. Pose solves on the rock garden: cold, warm from 2 cm back; one evaluation + Jacobian.
-  const model = buildModel(vehicle, garden);
-  const nPoses = quick ? 16 : 200;
-  const poses = posesAlong(nPoses);
-  const warmFrom: Float64Array[] = [];
-  const converged: Float64Array[] = [];
-  const coldRes: SolveResult[] = [];
-  const warmRes: SolveResult[] = [];
-  for (const p of poses) {
-    const back = solveEquilibrium(model, { ...p, xM: p.xM - 0.02 });
-    warmFrom.push(back.state);
-    const cold = solveEquilibrium(model, p);
-    coldRes.push(cold);
-    const warm = solveEquilibrium(model, p, { warmStart: back.state });
-    warmRes.push(warm);
-    converged.push(warm.state);
-  }
-  {
-    const cold = timeRuns((k) => void solveEquilibrium(model, poses[k % nPoses]), P.solve(nPoses));
-    push(figure('solve.cold', cold, 'ms', `demo vehicle, ${nPoses} poses along a rock garden (${statusCounts(coldRes)})`));
-    push(figure('solve.cold.iterations', coldRes.map((r) => r.iterations), 'count', `per solve, over the ${nPoses} poses; mean ${mean(coldRes.map((r) => r.iterations)).toFixed(2)}`));
-    push(figure('solve.cold.evaluations', coldRes.map((r) => r.evaluations), 'count', `full evaluations per solve; mean ${mean(coldRes.map((r) => r.evaluations)).toFixed(2)}`));
-  }
-  {
-    const r = new Float64Array(STATE_SIZE);
-    const warmWork = (k: number) => {
-      const i = k % nPoses;
-      solveEquilibrium(model, poses[i], { warmStart: warmFrom[i] });
-    };
-    const evalWork = (k: number) => {
-      const i = k % nPoses;
-      model.setPose(poses[i].xM, poses[i].yM, poses[i].headingRad);
-      model.setTilt(0, 0);
-      const x = converged[i];
-      model.residual(x, true, r);
-      for (let j = 0; j < STATE_SIZE; j++) model.residual(x, false, r);
-    };
-    const t = timePaired(warmWork, evalWork, P.solve(nPoses));
-    push(figure('solve.warm', t.a, 'ms', `same poses, warm-started from the solution 2 cm back (${statusCounts(warmRes)})`));
-    push(figure('solve.warm.iterations', warmRes.map((x) => x.iterations), 'count', `per solve; mean ${mean(warmRes.map((x) => x.iterations)).toFixed(2)}`));
-    push(figure('solve.warm.evaluations', warmRes.map((x) => x.evaluations), 'count', `full evaluations per solve; mean ${mean(warmRes.map((x) => x.evaluations)).toFixed(2)}`));
-    const rest = timeRuns((k) => {
-      const i = k % nPoses;
-      solveEquilibrium(model, poses[i], { warmStart: converged[i] });
-    }, P.solve(nPoses));
-    push(figure('solve.atRest', rest, 'ms', 'warm-started from its own solution (0 iterations): one full evaluation plus building the result (margins, support polygon)'));
-    push(figure('solve.evalJacobian', t.b.map((ms) => ms * US_PER_MS), 'µs', 'one full residual (tyre springs cast) + 10 linearised residuals (the Jacobian), at the converged states'));
-    push(figure('solve.warmPerEval', ratios(t.a, t.b), '×', 'warm solve / (one evaluation + Jacobian), run by run; 1 = the least work possible'));
-  }
+  if (want('solve.')) {
+    const model = buildModel(vehicle, garden);
+    const nPoses = quick ? 16 : 200;
+    const poses = posesAlong(nPoses);
+    const warmFrom: Float64Array[] = [];
+    const converged: Float64Array[] = [];
+    const coldRes: SolveResult[] = [];
+    const warmRes: SolveResult[] = [];
+    /** Newton's last Jacobian of each warm solve where the acceptance check reuses it (else null). */
+    const warmJ: (Float64Array | null)[] = [];
+    for (const p of poses) {
+      const back = solveEquilibrium(model, { ...p, xM: p.xM - 0.02 });
+      warmFrom.push(back.state);
+      const cold = solveEquilibrium(model, p);
+      coldRes.push(cold);
+      const warm = solveEquilibrium(model, p, { warmStart: back.state });
+      const J = reusableJacobian();
+      warmJ.push(J ? Float64Array.from(J) : null);
+      warmRes.push(warm);
+      converged.push(warm.state);
+    }
+    {
+      const cold = timeRuns((k) => void solveEquilibrium(model, poses[k % nPoses]), P.solve(nPoses));
+      push(figure('solve.cold', cold, 'ms', `demo vehicle, ${nPoses} poses along a rock garden (${statusCounts(coldRes)})`));
+      push(figure('solve.cold.iterations', coldRes.map((r) => r.iterations), 'count', `per solve, over the ${nPoses} poses; mean ${mean(coldRes.map((r) => r.iterations)).toFixed(2)}`));
+      push(figure('solve.cold.evaluations', coldRes.map((r) => r.evaluations), 'count', `full evaluations per solve; mean ${mean(coldRes.map((r) => r.evaluations)).toFixed(2)}`));
+    }
+    {
+      const r = new Float64Array(STATE_SIZE);
+      const warmWork = (k: number) => {
+        const i = k % nPoses;
+        solveEquilibrium(model, poses[i], { warmStart: warmFrom[i] });
+      };
+      const evalWork = (k: number) => {
+        const i = k % nPoses;
+        model.setPose(poses[i].xM, poses[i].yM, poses[i].headingRad);
+        model.setTilt(0, 0);
+        const x = converged[i];
+        model.residual(x, true, r);
+        for (let j = 0; j < STATE_SIZE; j++) model.residual(x, false, r);
+      };
+      const t = timePaired(warmWork, evalWork, P.solve(nPoses));
+      push(figure('solve.warm', t.a, 'ms', `same poses, warm-started from the solution 2 cm back (${statusCounts(warmRes)})`));
+      push(figure('solve.warm.iterations', warmRes.map((x) => x.iterations), 'count', `per solve; mean ${mean(warmRes.map((x) => x.iterations)).toFixed(2)}`));
+      push(figure('solve.warm.evaluations', warmRes.map((x) => x.evaluations), 'count', `full evaluations per solve; mean ${mean(warmRes.map((x) => x.evaluations)).toFixed(2)}`));
+      const rest = timeRuns((k) => {
+        const i = k % nPoses;
+        solveEquilibrium(model, poses[i], { warmStart: converged[i] });
+      }, P.solve(nPoses));
+      push(figure('solve.atRest', rest, 'ms', 'warm-started from its own solution (0 iterations): one full evaluation plus building the result (margins, support polygon)'));
+      push(figure('solve.evalJacobian', t.b.map((ms) => ms * US_PER_MS), 'µs', 'one full residual (tyre springs cast) + 10 linearised residuals (the Jacobian), at the converged states'));
+      push(figure('solve.warmPerEval', ratios(t.a, t.b), '×', 'warm solve / (one evaluation + Jacobian), run by run; 1 = the least work possible'));
+    }
 
-  {
-    // The second-order check of a converged pose, timed by itself (it evaluates the tyres at the
-    // state afresh, then the tangent stiffness and its eigenvalues).
-    const sc = createStabilityScratch();
-    const check = (k: number) => {
-      const i = k % nPoses;
-      model.setPose(poses[i].xM, poses[i].yM, poses[i].headingRad);
-      model.setTilt(0, 0);
-      stabilityOf(model, converged[i], sc, { fresh: true });
-    };
-    push(
-      figure(
-        'solve.stability',
-        timeRuns(check, P.solve(nPoses)).map((ms) => ms * US_PER_MS),
-        'µs',
-        'stability check of a converged pose (tyres evaluated at the state, tangent stiffness by central differences over the tyre linearisation, Jacobi eigenvalues; over the full equations only near zero), rock-garden poses',
-      ),
-    );
-    // The reference start where it does the most: the demo vehicle on a 20° side hill at 36
-    // headings, no warm start (set down square on the ground, gravity turned to the real one in steps).
-    const hill = buildModel(vehicle, { features: [{ type: 'plane', gradeRad: 0, crossSlopeRad: -20 * DEG, heightM: 0 }] });
-    const headings = Array.from({ length: 36 }, (_, k) => ({ xM: 0, yM: 0, headingRad: k * 10 * DEG }));
-    const refRes = headings.map((h) => solveEquilibrium(hill, h));
-    const ref = timeRuns((k) => void solveEquilibrium(hill, headings[k % headings.length]), P.solve(headings.length));
-    push(figure('solve.reference', ref, 'ms', `a solve from the reference start (no warm start) on a 20° side hill, 36 headings (${statusCounts(refRes)})`));
+    {
+      // The second-order check of a converged pose, timed by itself (it evaluates the tyres at the
+      // state afresh, then the tangent stiffness and its eigenvalues).
+      const sc = createStabilityScratch();
+      const check = (k: number) => {
+        const i = k % nPoses;
+        model.setPose(poses[i].xM, poses[i].yM, poses[i].headingRad);
+        model.setTilt(0, 0);
+        stabilityOf(model, converged[i], sc, { fresh: true });
+      };
+      push(
+        figure(
+          'solve.stability',
+          timeRuns(check, P.solve(nPoses)).map((ms) => ms * US_PER_MS),
+          'µs',
+          'stability check of a converged pose by itself (tyres evaluated at the state, tangent stiffness by central differences over the tyre linearisation, Householder + QL eigenvalues; over the full equations only near zero), rock-garden poses',
+        ),
+      );
+      // The same check as the warm solve's acceptance runs it: the stiffness from Newton's last
+      // Jacobian (kept from each warm solve above), the eigenvalues; the model placed at the state
+      // by its kinematics only (what the check reads besides the Jacobian).
+      const acceptPoses = warmJ.map((J, i) => (J ? i : -1)).filter((i) => i >= 0);
+      const accept = (k: number) => {
+        const i = acceptPoses[k % acceptPoses.length];
+        model.setPose(poses[i].xM, poses[i].yM, poses[i].headingRad);
+        model.setTilt(0, 0);
+        model.kinematics(converged[i]);
+        stabilityOf(model, converged[i], sc, { fresh: false, exact: false, jacobian: warmJ[i] });
+      };
+      push(
+        acceptPoses.length === 0
+          ? unavailable('solve.stability.reuse', 'µs', 'no warm solve left a Jacobian to reuse')
+          : figure(
+              'solve.stability.reuse',
+              timeRuns(accept, P.solve(acceptPoses.length)).map((ms) => ms * US_PER_MS),
+              'µs',
+              `the check as a warm solve's acceptance runs it: stiffness from Newton's last Jacobian, eigenvalues (${acceptPoses.length} of ${nPoses} warm solves reuse the Jacobian; the others difference the linearisation as solve.stability does)`,
+            ),
+      );
+      // The reference start where it does the most: the demo vehicle on a 20° side hill at 36
+      // headings, no warm start (set down square on the ground, gravity turned to the real one in steps).
+      const hill = buildModel(vehicle, { features: [{ type: 'plane', gradeRad: 0, crossSlopeRad: -20 * DEG, heightM: 0 }] });
+      const headings = Array.from({ length: 36 }, (_, k) => ({ xM: 0, yM: 0, headingRad: k * 10 * DEG }));
+      const refRes = headings.map((h) => solveEquilibrium(hill, h));
+      const ref = timeRuns((k) => void solveEquilibrium(hill, headings[k % headings.length]), P.solve(headings.length));
+      push(figure('solve.reference', ref, 'ms', `a solve from the reference start (no warm start) on a 20° side hill, 36 headings (${statusCounts(refRes)})`));
+    }
   }
 
   // --- 4. Tilt sweep to tip, 72-direction rose, 1000-station pass, 200-line sweep.
   const table_ = buildModel(vehicle, { features: [] });
   const origin: Pose = { xM: 0, yM: 0, headingRad: 0 };
-  {
+  if (want('tilt.sweep')) {
     let last: ReturnType<typeof tiltSweep> | null = null;
     const t = timeRuns(() => {
       last = tiltSweep(table_, origin, { downhillRad: Math.PI / 2 });
@@ -266,7 +309,7 @@ export async function runBench(opts: BenchOptions = {}): Promise<BenchReport> {
     const lift = res?.firstLift ? `, first lift ${res.firstLift.wheel} at ${(res.firstLift.angleRad / DEG).toFixed(2)}°` : '';
     push(figure('tilt.sweep', t, 'ms', `demo vehicle on a tilt table, left side down, 2° steps, then each event bracketed and narrowed to 0.01° (secant-guided bisection): ${tip}${lift}, ${res?.evaluations ?? 0} evaluations`));
   }
-  {
+  if (want('rose.72')) {
     let rose: RoseResult | null = null;
     const t = timeRuns(() => {
       rose = stabilityRose(table_, origin, { stepRad: 5 * DEG });
@@ -282,7 +325,7 @@ export async function runBench(opts: BenchOptions = {}): Promise<BenchReport> {
       ),
     );
   }
-  {
+  if (want('pass.1000', 'pass.250', 'pass.500', 'growth.pass.')) {
     const span = GARDEN_TO_X_M - GARDEN_FROM_X_M;
     const passModel = buildModel(vehicle, garden);
     // n stations over the same 50 m, both ends included (stationCount): n − 1 steps.
@@ -325,7 +368,7 @@ export async function runBench(opts: BenchOptions = {}): Promise<BenchReport> {
     push(figure('growth.pass.500vs250', ratios(t500, t250), '×', 'linear would be 2 (closer stations warm-start closer, so less is possible)'));
     push(figure('growth.pass.1000vs250', ratios(t1000, t250), '×', 'linear would be 4'));
   }
-  {
+  if (want('lines.200.')) {
     // 200 lines: 20 sideways offsets × 10 heading changes around a 5 m stretch of the rock garden
     // (10 cm stations: 51 per line). Quick mode: the same 200 lines, 2 stations each.
     const lengthM = quick ? 0.1 : 5;
@@ -371,7 +414,7 @@ export async function runBench(opts: BenchOptions = {}): Promise<BenchReport> {
 
   // --- 5. Side by side with cannon-es settling the same vehicle on the same terrain and pose.
   let settle: BenchReport['settle'] = null;
-  {
+  if (want('settle.')) {
     const rig = testVehicle();
     const scene = cannonScene();
     const rigModel = buildModel(rig, scene.terrain);
@@ -411,7 +454,7 @@ export async function runBench(opts: BenchOptions = {}): Promise<BenchReport> {
   }
 
   // --- 6. Growth: grid size, tyre springs and slices.
-  {
+  if (want('grid.')) {
     const gridPoses: Pose[] = [];
     for (let k = 0; k < 8; k++) gridPoses.push({ xM: -1 + (2 * k) / 7, yM: 0.2 * Math.sin(k), headingRad: 0.05 * Math.cos(k) });
     const small = buildModel(vehicle, heightGrid(64));
@@ -434,7 +477,7 @@ export async function runBench(opts: BenchOptions = {}): Promise<BenchReport> {
     const last = figures[figures.length - 1];
     figures[figures.length - 1] = { ...last, note: `${last.note}; per solve: ${abs.join(', ')}` };
   }
-  {
+  if (want('growth.slices.', 'growth.springs.')) {
     const gp = posesAlong(quick ? 8 : 40);
     const r = new Float64Array(STATE_SIZE);
     const measureTyre = (name: string, tyre: TyreModelOptions, what: string) => {
@@ -474,7 +517,7 @@ export async function runBench(opts: BenchOptions = {}): Promise<BenchReport> {
 
   // --- 7. One field edited in the app (edit.ts: the candidate with the new value, then the field
   // table's checks and the cross-field rules on the SI form), on a plane and on a 1000² grid.
-  {
+  if (want('edit.field.')) {
     const plane: Scenario = { ...demo, terrain: { features: [{ type: 'plane', gradeRad: 0, crossSlopeRad: 0, heightM: 0 }] } };
     const grid: Scenario = { ...demo, terrain: heightGrid(1000) };
     const spec: FieldSpec = { label: 'Mass as weighed', si: ['vehicle', 'massKg'], file: 'vehicle.mass', kind: 'mass' };
@@ -490,7 +533,7 @@ export async function runBench(opts: BenchOptions = {}): Promise<BenchReport> {
     push(figure('edit.field.grid1000', us(t.b), 'µs', 'the same edit on the demo with a 1000² height grid (1 M heights)'));
     push(figure('edit.field.grid1000vsPlane', ratios(t.b, t.a), '×', 'edit on the 1000² grid / edit on the plane, run by run'));
   }
-  for (const f of await groundFigures(quick, log)) push(f);
+  if (want('ground.')) for (const f of await groundFigures(quick, log)) push(f);
 
   return { machine: atStart, quick, figures, settle };
 }

@@ -14,7 +14,7 @@
 import type { Pose, SolveOptions, SolveResult, Terrain, Vehicle } from '../model/types';
 import { TerrainField } from '../terrain/field';
 import { GRAVITY_MPS2, type ModelOptions, Q_VX, Q_VY, Q_Z, STATE_SIZE, VehicleModel, rigidStaticLoads } from './model';
-import { type NewtonOutcome, gripOnPlane, guessNormal, initialGuess, newton, residualOut } from './newton';
+import { type NewtonOutcome, gripOnPlane, guessNormal, initialGuess, newton, residualOut, reusableJacobian } from './newton';
 import { buildResult } from './result';
 import { createStabilityScratch, stabilityOf } from './stability';
 import { DEFAULT_MAX_ITERATIONS, DEFAULT_TOLERANCE } from './newton';
@@ -60,11 +60,15 @@ interface Landing extends NewtonOutcome {
   minEigen: number | null;
 }
 
-/** Checks a converged Newton outcome at x for stability (the model's buffers hold x's full evaluation). */
+/**
+ * Checks a converged Newton outcome at x for stability (the model's buffers hold x's full
+ * evaluation; the Newton Jacobian of its last step, where it still holds, gives the cheap stiffness).
+ */
 function land(model: VehicleModel, x: Float64Array, out: NewtonOutcome): Landing {
   if (out.status !== 'converged') return { ...out, minEigen: null };
-  const st = stabilityOf(model, x, _stab, { fresh: false });
-  if (st.exact) model.residual(x, true, residualOut);
+  // On return the buffers hold x's evaluation again (stabilityOf's differences write their own
+  // residuals into its scratch, never into residualOut).
+  const st = stabilityOf(model, x, _stab, { fresh: false, jacobian: reusableJacobian() });
   if (st.stable) return { ...out, minEigen: st.minEigen };
   return {
     status: 'unstable',

@@ -30,6 +30,12 @@ const CONTACT_OVERSHOOT_M = 0.002;
 const MIN_CONTACT_STEP = 0.02;
 /** Give up when the residual has not halved over this many iterations (no equilibrium nearby). */
 const PROGRESS_WINDOW = 6;
+/**
+ * The last cheap Jacobian stands for the one at the root when it was formed where the scaled
+ * residual was below this (the step from there to the root is then of the order of the residual
+ * over the stiffness: the tyres' stiffness changes by a few parts in 10⁵ over it).
+ */
+const REUSE_MAX_RESIDUAL = 1e-3;
 
 const N = STATE_SIZE;
 const _x = new Float64Array(N);
@@ -46,6 +52,35 @@ const _rhs = new Float64Array(N);
 const _dx = new Float64Array(N);
 
 const _groundGuess = new Float64Array(4);
+
+/** Where the last cheap Jacobian was formed: its scaled residual, and which tyre slices carried load there. */
+let _jacOk = false;
+let _jacResidual = Infinity;
+let _jacLoaded = new Uint8Array(12);
+let _reusable = false;
+
+function recordContacts(model: VehicleModel): void {
+  const m = model.sliceLoad.length;
+  if (_jacLoaded.length < m) _jacLoaded = new Uint8Array(m);
+  for (let k = 0; k < m; k++) _jacLoaded[k] = model.sliceLoad[k] > 0 ? 1 : 0;
+}
+
+function sameContacts(model: VehicleModel): boolean {
+  const m = model.sliceLoad.length;
+  for (let k = 0; k < m; k++) if (_jacLoaded[k] !== (model.sliceLoad[k] > 0 ? 1 : 0)) return false;
+  return true;
+}
+
+/**
+ * The Jacobian (∂res/∂state over the tyres' linearisation, row-major STATE_SIZE²) of the last
+ * newton() call's last step, when it may stand for the one at the root that call converged to:
+ * formed over the linearisation (not the full equations), where the residual was already below
+ * REUSE_MAX_RESIDUAL, with the same tyre slices in contact as at the root. Else null. Valid until
+ * the next newton() call (stability.ts reads its configuration columns).
+ */
+export function reusableJacobian(): Float64Array | null {
+  return _reusable ? _J : null;
+}
 
 function maxAbs(r: Float64Array): number {
   let m = 0;
@@ -258,6 +293,8 @@ export interface NewtonOutcome {
 
 /** Newton iterations from x (updated in place); on return the model's buffers hold x's full evaluation and _r its residual. */
 export function newton(model: VehicleModel, x: Float64Array, tol: number, maxIt: number, allowFull = true): NewtonOutcome {
+  _jacOk = false;
+  _reusable = false;
   model.residual(x, true, _r);
   let n2 = norm2(_r);
   let status: SolveStatus = 'not-converged';
@@ -275,6 +312,7 @@ export function newton(model: VehicleModel, x: Float64Array, tol: number, maxIt:
     if (maxAbs(_r) < tol) {
       status = 'converged';
       reason = 'equilibrium found';
+      _reusable = _jacOk && _jacResidual <= REUSE_MAX_RESIDUAL && sameContacts(model);
       break;
     }
     if (it === maxIt) {
@@ -294,6 +332,11 @@ export function newton(model: VehicleModel, x: Float64Array, tol: number, maxIt:
       n2 = norm2(_r);
       continue;
     }
+    if (!fullJacobian) {
+      _jacResidual = maxAbs(_r);
+      recordContacts(model);
+    }
+    _jacOk = !fullJacobian;
     jacobian(model, x, _r, fullJacobian, _J);
     _A.set(_J);
     for (let i = 0; i < N; i++) _rhs[i] = -_r[i];

@@ -15,12 +15,19 @@
  *    reactions stay what they are at the equilibrium, shared over the contacts in proportion to
  *    the normal loads, as in the equations.
  *  - K = −∂G/∂q, with G the generalised forces conjugate to those coordinates (the vertical force,
- *    the moments about the roll and pitch axes of the rotation, the suspension equations), from
- *    central differences: first over the tyres' linearisation at the state (no ray casts beyond
- *    one full evaluation); when that puts the smallest eigenvalue near zero (below EXACT_BELOW),
- *    again over the full equations (fourteen ray casts, or twenty-eight where the first verdict is
- *    unstable: see exactCheck), since the linearisation freezes the contact geometry and can
- *    misjudge the sign near a fold.
+ *    the moments about the roll and pitch axes of the rotation, the suspension equations), first
+ *    over the tyres' linearisation: from the Jacobian Newton formed on its last step when the
+ *    solver passes one that still holds at the root (same contacts, a step of the order of the
+ *    tolerance: newton.ts, reusableJacobian; G is a fixed combination of the residual rows at the
+ *    root, so K = −C·J on the seven configuration columns), else by central differences at the state
+ *    (no ray casts beyond one full evaluation). When that puts the smallest eigenvalue near zero
+ *    (below EXACT_BELOW) the full equations decide, since the linearisation freezes the contact
+ *    geometry and can misjudge the sign near a fold: first along the softest mode only (central
+ *    differences of the full equations along it: two ray casts, four where the first verdict is
+ *    unstable, refineAlongMode), kept when the Rayleigh quotient there is provably within
+ *    REFINE_TOL of the full matrix's smallest eigenvalue (Kato–Temple bound) and its sign is
+ *    decided; else the whole matrix over the full equations (fourteen ray casts, or twenty-eight:
+ *    see exactCheck).
  *  - Coordinates are made dimensionless (lengths divided by the wheelbase L) and forces scaled by
  *    the weight W, so K is in units of W·L per unit of coordinate²; the grip held fixed makes K
  *    slightly non-symmetric, so its symmetric part (K + Kᵀ)/2 is taken (the part that does work
@@ -51,6 +58,10 @@ const JACOBI_MAX_SWEEPS = 30;
 
 export interface StabilityScratch {
   readonly q: Float64Array;
+  /** Tangent stiffness before symmetrising (row-major CONFIG_SIZE²). */
+  readonly Kraw: Float64Array;
+  /** Full-equation stiffness times the softest mode (refineAlongMode). */
+  readonly w: Float64Array;
   readonly res: Float64Array;
   readonly g0: Float64Array;
   readonly g1: Float64Array;
@@ -62,12 +73,17 @@ export interface StabilityScratch {
   readonly V: Float64Array;
   /** Eigenvector of the smallest eigenvalue (the softest mode), config coordinates (scaled). */
   readonly mode: Float64Array;
+  /** Eigenvalues, ascending (after stabilityOf), and working space. */
+  readonly eig: Float64Array;
+  readonly work: Float64Array;
 }
 
 export function createStabilityScratch(): StabilityScratch {
   const n = CONFIG_SIZE;
   return {
     q: new Float64Array(STATE_SIZE),
+    Kraw: new Float64Array(n * n),
+    w: new Float64Array(n),
     res: new Float64Array(STATE_SIZE),
     g0: new Float64Array(n),
     g1: new Float64Array(n),
@@ -75,6 +91,8 @@ export function createStabilityScratch(): StabilityScratch {
     A: new Float64Array(n * n),
     V: new Float64Array(n * n),
     mode: new Float64Array(n),
+    eig: new Float64Array(n),
+    work: new Float64Array(n),
   };
 }
 
@@ -126,11 +144,14 @@ function coordinateLength(model: VehicleModel, k: number): number {
 /**
  * Smallest eigenvalue of the symmetric n×n matrix in A (row-major; destroyed: its diagonal ends
  * as the eigenvalues), by the cyclic Jacobi method (Golub & Van Loan, Matrix Computations, §8.5).
- * V receives the eigenvectors as columns. Returns the index of the smallest eigenvalue.
+ * V receives the eigenvectors as columns (pass null when only the eigenvalues are wanted: a third
+ * less work). Returns the index of the smallest eigenvalue.
  */
-export function jacobiEigen(n: number, A: Float64Array, V: Float64Array): number {
-  V.fill(0, 0, n * n);
-  for (let i = 0; i < n; i++) V[i * n + i] = 1;
+export function jacobiEigen(n: number, A: Float64Array, V: Float64Array | null): number {
+  if (V) {
+    V.fill(0, 0, n * n);
+    for (let i = 0; i < n; i++) V[i * n + i] = 1;
+  }
   let norm = 0;
   for (let i = 0; i < n * n; i++) norm += A[i] * A[i];
   const tiny = 1e-30 * norm;
@@ -161,7 +182,7 @@ export function jacobiEigen(n: number, A: Float64Array, V: Float64Array): number
           A[p * n + k] = c * apk - s * aqk;
           A[q * n + k] = s * apk + c * aqk;
         }
-        for (let k = 0; k < n; k++) {
+        if (V) for (let k = 0; k < n; k++) {
           const vkp = V[k * n + p];
           const vkq = V[k * n + q];
           V[k * n + p] = c * vkp - s * vkq;
@@ -173,6 +194,96 @@ export function jacobiEigen(n: number, A: Float64Array, V: Float64Array): number
   let imin = 0;
   for (let i = 1; i < n; i++) if (A[i * n + i] < A[imin * n + imin]) imin = i;
   return imin;
+}
+
+/**
+ * Eigenvalues of the symmetric n×n matrix in A (row-major; destroyed), ascending into d (length n;
+ * e, length n, is working space): Householder reduction to tridiagonal form, then the implicit QL
+ * iteration with Wilkinson-type shifts (Golub & Van Loan, Matrix Computations, §8.3; the EISPACK
+ * routines tred1/tql1). Eigenvalues only: about a tenth of the work of jacobiEigen with vectors.
+ * Returns false if the iteration did not settle (then d holds no answer).
+ */
+export function symmetricEigenvalues(n: number, A: Float64Array, d: Float64Array, e: Float64Array): boolean {
+  // Householder: for each column k, reflect rows/columns k+1…n−1 so that A[k+2…][k] vanish.
+  for (let k = 0; k < n - 2; k++) {
+    let alpha = 0;
+    for (let i = k + 1; i < n; i++) alpha += A[i * n + k] * A[i * n + k];
+    const x0 = A[(k + 1) * n + k];
+    let norm = Math.sqrt(alpha);
+    if (norm === 0) {
+      e[k] = 0;
+      continue;
+    }
+    if (x0 > 0) norm = -norm;
+    // v = x − norm·e₁ (stored over the column), H = I − v vᵀ / h with h = norm² − x0·norm.
+    const h = alpha - x0 * norm;
+    A[(k + 1) * n + k] = x0 - norm;
+    e[k] = norm;
+    // p = A'v / h; K = vᵀp / (2h); q = p − K v; A' −= v qᵀ + q vᵀ (trailing block, lower triangle used symmetrically).
+    let vp = 0;
+    for (let i = k + 1; i < n; i++) {
+      let sum = 0;
+      for (let j = k + 1; j < n; j++) sum += A[i * n + j] * A[j * n + k];
+      const pi = sum / h;
+      d[i] = pi;
+      vp += A[i * n + k] * pi;
+    }
+    const K = vp / (2 * h);
+    for (let i = k + 1; i < n; i++) d[i] -= K * A[i * n + k];
+    for (let i = k + 1; i < n; i++) {
+      for (let j = k + 1; j < n; j++) A[i * n + j] -= A[i * n + k] * d[j] + d[i] * A[j * n + k];
+    }
+  }
+  for (let i = 0; i < n; i++) d[i] = A[i * n + i];
+  if (n >= 2) e[n - 2] = A[(n - 1) * n + (n - 2)];
+  e[n - 1] = 0;
+  // Implicit QL on the tridiagonal (d, e): e[i] couples i and i+1.
+  for (let l = 0; l < n; l++) {
+    let iter = 0;
+    let m: number;
+    do {
+      for (m = l; m < n - 1; m++) {
+        const dd = Math.abs(d[m]) + Math.abs(d[m + 1]);
+        if (Math.abs(e[m]) <= 1e-15 * dd) break;
+      }
+      if (m !== l) {
+        if (iter++ === 60) return false;
+        let g = (d[l + 1] - d[l]) / (2 * e[l]);
+        let r = Math.sqrt(g * g + 1);
+        g = d[m] - d[l] + e[l] / (g + (g >= 0 ? r : -r));
+        let sn = 1;
+        let cs = 1;
+        let p = 0;
+        let i: number;
+        let underflow = false;
+        for (i = m - 1; i >= l; i--) {
+          const f = sn * e[i];
+          const b = cs * e[i];
+          r = Math.sqrt(f * f + g * g);
+          e[i + 1] = r;
+          if (r === 0) {
+            d[i + 1] -= p;
+            e[m] = 0;
+            underflow = true;
+            break;
+          }
+          sn = f / r;
+          cs = g / r;
+          g = d[i + 1] - p;
+          r = (d[i] - g) * sn + 2 * cs * b;
+          p = sn * r;
+          d[i + 1] = g + p;
+          g = cs * r - b;
+        }
+        if (underflow) continue;
+        d[l] -= p;
+        e[l] = g;
+        e[m] = 0;
+      }
+    } while (m !== l);
+  }
+  d.subarray(0, n).sort();
+  return true;
 }
 
 export interface StabilityOptions {
@@ -187,6 +298,14 @@ export interface StabilityOptions {
   readonly exact?: boolean | 'auto';
   /** Finite-difference step on the state (m or rad). @default 1e-7 */
   readonly step?: number;
+  /**
+   * The Jacobian of the scaled residual over the tyres' linearisation (row-major STATE_SIZE²) that
+   * Newton formed on its last step, when it still holds at `state` (newton.ts: reusableJacobian);
+   * the cheap stiffness is then read from it instead of fourteen linearised evaluations. Ignored
+   * where a suspension stop engages within a few steps of the state (a kink: central differences
+   * see both sides, the Jacobian's forward ones only one).
+   */
+  readonly jacobian?: Float64Array | null;
 }
 
 /**
@@ -214,11 +333,75 @@ export interface Stability {
  */
 export function stabilityOf(model: VehicleModel, state: Float64Array, scratch: StabilityScratch, options: StabilityOptions = {}): Stability {
   const mode = options.exact ?? 'auto';
-  if (options.fresh ?? true) model.residual(state, true, scratch.res);
+  const fresh = options.fresh ?? true;
+  if (fresh) model.residual(state, true, scratch.res);
   if (mode === true) return exactCheck(model, state, scratch, options.step);
-  const cheap = check(model, state, scratch, false, options.step ?? STIFFNESS_FD_STEP);
+  const J = !fresh && options.step === undefined ? (options.jacobian ?? null) : null;
+  const cheap = J && !nearStop(model) ? fromJacobian(model, J, scratch) : check(model, state, scratch, false, options.step ?? STIFFNESS_FD_STEP);
   if (mode === false || !(cheap.minEigen < EXACT_BELOW)) return cheap;
+  if (options.step === undefined) {
+    const refined = refineAlongMode(model, state, scratch, cheap);
+    if (refined) return refined;
+  }
   return exactCheck(model, state, scratch, options.step);
+}
+
+/** A wheel's travel this close to a bump stop or the droop limit counts as at it (m): ten finite-difference steps. */
+const STOP_BAND_M = 10 * STIFFNESS_FD_STEP;
+
+/** Whether a suspension stop engages within STOP_BAND_M of the travels in the model's buffers. */
+function nearStop(model: VehicleModel): boolean {
+  for (let i = 0; i < 4; i++) {
+    const ax = model.axles[i >> 1];
+    const t = model.travel[i];
+    if (Math.abs(t - ax.bumpM) < STOP_BAND_M || Math.abs(t + ax.droopM) < STOP_BAND_M) return true;
+  }
+  return false;
+}
+
+/**
+ * The generalised forces as a fixed combination of the residual rows at the state (the rotation in
+ * the model's buffers): G = C·res (generalisedForces is linear in res). Row i of C into row.
+ */
+function forceRow(model: VehicleModel, i: number, row: Float64Array): void {
+  row.fill(0);
+  if (i === 0) row[2] = 1;
+  else if (i === 1) {
+    const r = model.rot;
+    row[3] = r[0];
+    row[4] = r[3];
+    row[5] = r[6];
+  } else if (i === 2) {
+    row[3] = -Math.sin(model.headingRad);
+    row[4] = Math.cos(model.headingRad);
+  } else {
+    const a = (i - 3) >> 1;
+    const ax = model.axles[a];
+    const second = ((i - 3) & 1) === 1;
+    row[R_SUSP + (i - 3)] = ax.solid && second ? ax.trackM / model.wheelbaseM : 1;
+  }
+}
+
+/**
+ * The cheap stiffness from Newton's Jacobian J (∂res/∂state): K = −C·J·diag(ℓ) on the configuration
+ * columns (the state's first seven unknowns). The term (∂C/∂q)·res is left out: at a root res is
+ * within the solver's tolerance of zero.
+ */
+function fromJacobian(model: VehicleModel, J: Float64Array, scratch: StabilityScratch): Stability {
+  const n = CONFIG_SIZE;
+  const K = scratch.Kraw;
+  const row = scratch.res;
+  for (let i = 0; i < n; i++) {
+    forceRow(model, i, row);
+    for (let j = 0; j < n; j++) {
+      const k = stateIndex(j);
+      let sum = 0;
+      for (let r = 0; r < STATE_SIZE; r++) if (row[r] !== 0) sum += row[r] * J[r * STATE_SIZE + k];
+      K[i * n + j] = -sum * coordinateLength(model, k);
+    }
+  }
+  // scratch.res was used as a row buffer: it no longer holds a residual (nothing reads it after a non-fresh check).
+  return eigenOf(scratch, false);
 }
 
 /**
@@ -245,7 +428,7 @@ function check(model: VehicleModel, state: Float64Array, scratch: StabilityScrat
   const q = scratch.q;
   q.set(state);
   const res = scratch.res;
-  const K = scratch.K;
+  const K = scratch.Kraw;
   for (let j = 0; j < n; j++) {
     const k = stateIndex(j);
     const keep = q[k];
@@ -264,21 +447,123 @@ function check(model: VehicleModel, state: Float64Array, scratch: StabilityScrat
   }
   // Leave the buffers at the state itself (the full differences re-cast the tyres elsewhere).
   model.residual(q, full, res);
+  return eigenOf(scratch, full);
+}
+
+/**
+ * Symmetrises scratch.Kraw into scratch.K and takes its eigenvalues; the softest mode into
+ * scratch.mode. Eigenvectors are formed only when the smallest eigenvalue is below EXACT_BELOW
+ * (refineAlongMode needs the mode there; elsewhere nothing reads it).
+ */
+function eigenOf(scratch: StabilityScratch, full: boolean): Stability {
+  const n = CONFIG_SIZE;
+  const K = scratch.K;
+  const Kraw = scratch.Kraw;
   let finite = true;
   for (let i = 0; i < n; i++) {
     for (let j = i; j < n; j++) {
-      const s = 0.5 * (K[i * n + j] + K[j * n + i]);
+      const s = 0.5 * (Kraw[i * n + j] + Kraw[j * n + i]);
       if (!Number.isFinite(s)) finite = false;
       K[i * n + j] = s;
       K[j * n + i] = s;
     }
   }
   if (!finite) return { minEigen: NaN, maxEigen: NaN, stable: false, exact: full };
+  const eig = scratch.eig;
   scratch.A.set(K);
-  const imin = jacobiEigen(n, scratch.A, scratch.V);
-  let maxAbs = 0;
-  for (let i = 0; i < n; i++) maxAbs = Math.max(maxAbs, Math.abs(scratch.A[i * n + i]));
-  for (let i = 0; i < n; i++) scratch.mode[i] = scratch.V[i * n + imin];
-  const minEigen = scratch.A[imin * n + imin];
+  const settled = symmetricEigenvalues(n, scratch.A, eig, scratch.work);
+  if (!settled || eig[0] < EXACT_BELOW) {
+    // The softest mode is wanted (refineAlongMode), or QL did not settle: Jacobi with vectors.
+    scratch.A.set(K);
+    const imin = jacobiEigen(n, scratch.A, scratch.V);
+    for (let i = 0; i < n; i++) {
+      scratch.mode[i] = scratch.V[i * n + imin];
+      eig[i] = scratch.A[i * n + i];
+    }
+    eig.sort();
+  }
+  const maxAbs = Math.max(Math.abs(eig[0]), Math.abs(eig[n - 1]));
+  const minEigen = eig[0];
   return { minEigen, maxEigen: maxAbs, stable: minEigen > -STABILITY_REL_TOL * maxAbs, exact: full };
+}
+
+/**
+ * Largest distance (per W·L) between the Rayleigh quotient along the cheap softest mode and the
+ * smallest eigenvalue of the full-equation stiffness that refineAlongMode accepts; beyond it the
+ * whole matrix is differenced.
+ */
+export const REFINE_TOL = 1e-3;
+
+/**
+ * The full equations along the cheap softest mode v only (after eigenOf put it in scratch.mode and
+ * the eigenvalues, ascending, in scratch.eig): w = K_full·v by central differences of the full
+ * equations (two ray casts), ρ = vᵀw (the Rayleigh quotient: never below the full matrix's smallest
+ * eigenvalue) and the residual s = w − ρv − (antisymmetric part of the cheap K)·v, i.e. that of the
+ * symmetric part. By the Kato–Temple inequality (Parlett, The Symmetric Eigenvalue Problem, §10.3)
+ * the smallest eigenvalue λ₁ of the full matrix satisfies ρ − |s|²/(β − ρ) ≤ λ₁ ≤ ρ for any β ≤ λ₂
+ * above ρ; β is the cheap second-smallest eigenvalue less half its gap to ρ (the linearisation
+ * misses a few hundredths: module comment). As in exactCheck, an unstable first verdict is tried
+ * again with a step ten times longer and the larger quotient kept. ρ is returned when that bound is
+ * within REFINE_TOL and decides the sign; else null (the whole matrix is differenced). One more ray
+ * cast at the state leaves the buffers there.
+ */
+function refineAlongMode(model: VehicleModel, state: Float64Array, scratch: StabilityScratch, cheap: Stability): Stability | null {
+  const tol = STABILITY_REL_TOL * cheap.maxEigen;
+  let rho = alongMode(model, state, scratch, cheap, EXACT_FD_STEP);
+  let bound = _bound;
+  if (!(rho - bound > -tol)) {
+    const longer = alongMode(model, state, scratch, cheap, 10 * EXACT_FD_STEP);
+    if (longer > rho) {
+      rho = longer;
+      bound = _bound;
+    }
+  }
+  model.residual(state, true, scratch.res);
+  if (!(bound <= REFINE_TOL) || !Number.isFinite(rho)) return null;
+  // The sign must be decided by the bound: a quotient within it of zero goes to the whole matrix.
+  if (!(rho - bound > -tol) && !(rho < -tol)) return null;
+  return { minEigen: rho, maxEigen: cheap.maxEigen, stable: rho - bound > -tol, exact: true };
+}
+
+/** The Kato–Temple bound of the last alongMode call (per W·L; Infinity when it does not apply). */
+let _bound = Infinity;
+
+/** Rayleigh quotient of the full-equation stiffness along scratch.mode with state step h; its bound into _bound. */
+function alongMode(model: VehicleModel, state: Float64Array, scratch: StabilityScratch, cheap: Stability, h: number): number {
+  const n = CONFIG_SIZE;
+  const v = scratch.mode;
+  const second = scratch.eig[1];
+  _bound = Infinity;
+  // The physical step along v: the longest state change h (as exactCheck takes per coordinate).
+  let reach = 0;
+  for (let j = 0; j < n; j++) reach = Math.max(reach, Math.abs(v[j]) * coordinateLength(model, stateIndex(j)));
+  if (!(reach > 0) || !Number.isFinite(second)) return NaN;
+  const eps = h / reach;
+  const q = scratch.q;
+  q.set(state);
+  for (let j = 0; j < n; j++) q[stateIndex(j)] = state[stateIndex(j)] + eps * v[j] * coordinateLength(model, stateIndex(j));
+  model.residual(q, true, scratch.res);
+  generalisedForces(model, scratch.res, scratch.g1);
+  for (let j = 0; j < n; j++) q[stateIndex(j)] = state[stateIndex(j)] - eps * v[j] * coordinateLength(model, stateIndex(j));
+  model.residual(q, true, scratch.res);
+  generalisedForces(model, scratch.res, scratch.g0);
+  q.set(state);
+  const w = scratch.w;
+  let rho = 0;
+  for (let i = 0; i < n; i++) {
+    w[i] = -(scratch.g1[i] - scratch.g0[i]) / (2 * eps);
+    rho += v[i] * w[i];
+  }
+  // Residual of the symmetric part: w − ρv − ((Kraw − Krawᵀ)/2)·v.
+  const Kraw = scratch.Kraw;
+  let s2 = 0;
+  for (let i = 0; i < n; i++) {
+    let skew = 0;
+    for (let j = 0; j < n; j++) skew += 0.5 * (Kraw[i * n + j] - Kraw[j * n + i]) * v[j];
+    const si = w[i] - rho * v[i] - skew;
+    s2 += si * si;
+  }
+  const beta = second - 0.5 * (second - cheap.minEigen);
+  if (beta > rho) _bound = s2 / (beta - rho);
+  return rho;
 }

@@ -5,8 +5,11 @@
  *
  * The tip is the end of the stable equilibrium branch as the tilt grows (REFERENCES, "Stability
  * of an equilibrium and the tip as a fold"): the sweep follows the branch by continuation (a
- * secant predictor from the last two accepted states, Newton as the corrector, the step halved
- * where the corrector fails or leaves the branch), and accepts a state only if it converged, is
+ * secant predictor from the last two accepted states, Newton as the corrector, two steps at once
+ * where the branch is stiff and nothing is due for several (quietStretch), the step halved where
+ * the corrector fails or leaves the branch; a trial past where the last two states put the end, or
+ * inside a bracket narrower than QUICK_BRACKET_RAD, is solved with the quick iteration only:
+ * predictEnd), and accepts a state only if it converged, is
  * stable (the smallest eigenvalue of the tangent stiffness with the grip held is positive:
  * stability.ts) and has its plumb line inside the support (force-angle ≥ 0). The tip is located
  * where that stops being true, bracketed to the resolution (0.01°) from the last stable state:
@@ -64,6 +67,10 @@ const NEAR_EDGE_RAD = 0.2 * DEG;
  * fold the eigenvalue passes NEAR_NEUTRAL_EIGEN only a few hundredths of a degree before it.
  */
 const SOFT_STRETCH_RAD = 1 * DEG;
+/** The quiet stretch (tiltSweep's quietStretch): smallest eigenvalue at least this (per W·L), nothing due within QUIET_AHEAD steps; QUIET_STEPS steps taken at once. */
+const QUIET_EIGEN = 0.3;
+const QUIET_AHEAD = 5;
+const QUIET_STEPS = 2;
 /** Where a failed step lies within the resolution of a state far from both criteria, these tilts beyond it are tried with full solves. */
 const STEP_OVER_RAD = [0.03 * DEG, 0.1 * DEG, 0.5 * DEG];
 
@@ -358,6 +365,44 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
   let softSince = j0.minEigen < NEAR_NEUTRAL_EIGEN ? start : NaN;
   /** The first nearly neutral stretch longer than SOFT_STRETCH_RAD on the branch (it may have stiffened again since). */
   let firstSoft: TiltAngle | null = null;
+  /**
+   * Where the branch is expected to end, from the last two accepted states (rad; Infinity when
+   * neither trend points to an end): near a fold the smallest eigenvalue falls like the square root
+   * of the distance to it, so its square is extrapolated linearly to MIN_STIFFNESS_EIGEN²; the
+   * force-angle falls linearly to zero at the edge. It only chooses the quick iteration for a trial
+   * beyond it: every trial is judged as any other, and a quick miss far from both criteria is
+   * stepped over with full solves as any other failure.
+   */
+  const predictEnd = (): number => {
+    if (!p0 || !(p1.angle > p0.angle)) return Infinity;
+    const dA = p1.angle - p0.angle;
+    let est = Infinity;
+    const l0 = p0.minEigen * p0.minEigen;
+    const l1 = p1.minEigen * p1.minEigen;
+    const lm = MIN_STIFFNESS_EIGEN * MIN_STIFFNESS_EIGEN;
+    if (l0 > l1 && l1 > lm) est = p1.angle + ((l1 - lm) * dA) / (l0 - l1);
+    const f0 = p0.r.margins.forceAngleRad;
+    const f1 = p1.r.margins.forceAngleRad;
+    if (f0 > f1 && f1 > 0) est = Math.min(est, p1.angle + (f1 * dA) / (f0 - f1));
+    return est;
+  };
+  /**
+   * Whether the branch is in a quiet stretch: stiff (smallest eigenvalue at least QUIET_EIGEN), and
+   * neither its end (predictEnd) nor a wheel's lift (the lightest load extrapolated linearly from the
+   * last two states) is due within QUIET_AHEAD steps. There the sweep takes QUIET_STEPS steps at
+   * once: events are still bracketed between accepted states and narrowed to the resolution.
+   */
+  const quietStretch = (): boolean => {
+    if (!p0 || !(p1.angle > p0.angle) || p1.minEigen < QUIET_EIGEN) return false;
+    const ahead = p1.angle + QUIET_AHEAD * step;
+    if (predictEnd() < ahead) return false;
+    if (!firstLift) {
+      const l0 = lightestLoad(p0.r);
+      const l1 = lightestLoad(p1.r);
+      if (l1 < l0 && p1.angle + (l1 * (p1.angle - p0.angle)) / (l0 - l1) < ahead) return false;
+    }
+    return true;
+  };
   while (p1.angle < maxAngle - 1e-12) {
     if (hi - p1.angle <= resolution) {
       // The branch ends within the resolution past p1, unless the failure there was numerical:
@@ -381,8 +426,9 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
       hi = Infinity;
       continue;
     }
-    // Full steps while no end is known; halving the bracket [p1, hi] once one is.
-    const trial = hi === Infinity ? Math.min(p1.angle + step, maxAngle) : p1.angle + 0.5 * (hi - p1.angle);
+    // Full steps while no end is known (two where nothing is due within several: quietStretch);
+    // halving the bracket [p1, hi] once one is.
+    const trial = hi === Infinity ? Math.min(p1.angle + (quietStretch() ? QUIET_STEPS : 1) * step, maxAngle) : p1.angle + 0.5 * (hi - p1.angle);
     // Predictor: the secant through the last two accepted states.
     const x1 = p1.r.state;
     if (p0 && p1.angle > p0.angle) {
@@ -390,11 +436,17 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
       const x0 = p0.r.state;
       for (let k = 0; k < STATE_SIZE; k++) _pred[k] = x1[k] + f * (x1[k] - x0[k]);
     } else _pred.set(x1);
-    let r = solveAt(trial, _pred, false, STEP_MAX_ITERATIONS);
+    // Past the predicted end, and inside a bracket narrower than QUICK_BRACKET_RAD, the quick
+    // iteration decides, as in bisect (a miss counts as past the end): the full fallbacks cost a
+    // hundred evaluations or more for each trial past the end, where no equilibrium is to be found.
+    const quick = (hi !== Infinity && hi - p1.angle < QUICK_BRACKET_RAD) || (trial > predictEnd());
+    let r = solveAt(trial, _pred, quick, STEP_MAX_ITERATIONS);
     let j = judge(trial, r, p1);
-    if (j.verdict === 'failed' || j.verdict === 'off-branch') {
-      // The predictor may overshoot where the branch bends (a wheel lifting): try from p1 itself.
-      r = solveAt(trial, x1, false, STEP_MAX_ITERATIONS);
+    if (!quick && (j.verdict === 'failed' || j.verdict === 'off-branch')) {
+      // The predictor may overshoot where the branch bends (a wheel lifting): try from p1 itself,
+      // with the quick iteration (a second opinion from another start; past the end of the branch
+      // the full fallbacks would cost a hundred evaluations more, and a miss here only halves the step).
+      r = solveAt(trial, x1, true, STEP_MAX_ITERATIONS);
       j = judge(trial, r, p1);
     }
     if (j.verdict === 'ok') {
