@@ -16,7 +16,8 @@ import { WHEEL_NAMES, type TerrainFeature } from '../core/model/types';
 import type { BuildRow } from '../core/analysis/builds';
 import { liftAngleOf, tipAngleOf } from '../core/analysis/rose';
 import { spareFromRose } from '../core/analysis/spare';
-import { spareLines } from '../present/words';
+import { pathPoints } from '../core/analysis/pathGeometry';
+import { filledPassWords, spareLines } from '../present/words';
 import {
   BUILD_METRICS,
   COMMON_PRACTICE_MAX_SLOPE_DEG,
@@ -123,6 +124,7 @@ table.kv th { width: 48mm; }
 .headline { font-size: 11pt; }
 .meta { color: #333; }
 .small { font-size: 8.5pt; color: #333; }
+.warn { font-weight: 600; border-left: 2pt solid #000; padding-left: 2mm; }
 figure { margin: 2mm 0 4mm; break-inside: avoid; page-break-inside: avoid; }
 figcaption { font-size: 8.5pt; color: #333; }
 svg.chart { max-width: 100%; height: auto; display: block; }
@@ -293,7 +295,7 @@ function scenarioSection(d: ReportData, u: U): string {
     kv([
       ['pose', `x ${len(u, s.pose.xM)}, y ${len(u, s.pose.yM)}, heading ${deg(s.pose.headingRad)}`],
       ['tilt table', s.tilt.angleRad === 0 ? 'none' : `${deg(s.tilt.angleRad)} from level, downhill ${directionText(s.tilt.downhillRad)} (0 nose, 90 left, 180 tail, 270 right)`],
-      ['obstacle pass path', p ? `from (${len(u, p.fromM[0])}, ${len(u, p.fromM[1])}) to (${len(u, p.toM[0])}, ${len(u, p.toM[1])}) every ${dist(u, p.stepM)}, heading ${p.headingRad === null ? 'along the path' : deg(p.headingRad)}` : 'none'],
+      ['obstacle pass path', p ? `${p.viaM && p.viaM.length > 0 ? 'through' : 'from'} ${pathPoints(p).map((q) => `(${len(u, q[0])}, ${len(u, q[1])})`).join(p.viaM && p.viaM.length > 0 ? ', ' : ' to ')} every ${dist(u, p.stepM)}, heading ${p.headingRad === null ? 'along the path' : deg(p.headingRad)}` : 'none'],
       ['ground friction coefficient', fixed(s.friction, 2)],
     ]),
   );
@@ -381,9 +383,10 @@ function passHeadline(d: ReportData, u: U): string {
     ],
     ['Smallest underbody gap', p.minClearance ? `${short(u, p.minClearance.clearanceM)} (${partWords(p.minClearance.part)}) at ${dist(u, p.minClearance.distanceM)}` : NO_VALUE],
   ];
+  const filledNote = filledPassWords(p, u);
   return keep(
     `<h3>Obstacle pass</h3><p class="headline" id="pass-headline">${esc(passHeadlineWords(p, u))}</p>${kv(pairs)}`,
-    `<p class="small">Distances along the path from its start, in ${unitSymbol('distance', u)}.</p>`,
+    `${filledNote ? `<p class="warn" id="pass-filled">${esc(filledNote)}</p>` : ''}<p class="small">Distances along the path from its start, in ${unitSymbol('distance', u)}.</p>`,
   );
 }
 
