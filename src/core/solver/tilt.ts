@@ -193,6 +193,13 @@ const _pred = new Float64Array(STATE_SIZE);
  * Follows the stable equilibrium branch from the start tilt as the table rises about
  * opts.downhillRad; see the module comment.
  */
+/** Where the stable branch ends at the first lift (the stance just past it is unstable). */
+interface LiftEnd {
+  readonly lo: BranchPoint;
+  readonly hi: number;
+  readonly hiRes: SolveResult;
+}
+
 export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOptions): TiltSweepDetail {
   const start = opts.startAngleRad ?? 0;
   const maxAngle = opts.maxAngleRad ?? 89 * DEG;
@@ -403,7 +410,9 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
     }
     return true;
   };
-  while (p1.angle < maxAngle - 1e-12) {
+  /** Set by accept when the stance just past the first lift is unstable: the branch ends at the lift. */
+  let liftEnd = null as LiftEnd | null;
+  while (p1.angle < maxAngle - 1e-12 && !liftEnd) {
     if (hi - p1.angle <= resolution) {
       // The branch ends within the resolution past p1, unless the failure there was numerical:
       // p1 far from both criteria and a plain Newton miss. Then step over it with full solves.
@@ -458,7 +467,22 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
     hiRes = r;
   }
 
-  if (hi !== Infinity) {
+  const ended = liftEnd as LiftEnd | null; // set inside accept(), which TypeScript does not follow
+  if (ended) {
+    // The lift ends the branch: the tip is at the lift, about the edge the stance just past it leans over.
+    const lo = ended.lo;
+    samples.push(toSample(lo.angle, lo.r));
+    const tipAngle = firstLift!.angleRad;
+    tip = {
+      ...at(tipAngle),
+      edge: ended.hiRes.margins.weakestEdgeWheels,
+      reason: 'fold',
+      lastMinEigen: lo.minEigen,
+      lastForceAngleRad: lo.r.margins.forceAngleRad,
+      softFrom: firstSoft ?? (!Number.isNaN(softSince) && tipAngle - softSince > SOFT_STRETCH_RAD ? at(softSince) : null),
+    };
+    firstLift = { ...firstLift!, atTip: true };
+  } else if (hi !== Infinity) {
     const lo = p1;
     let reason: TipReason;
     if (hiVerdict === 'outside') reason = 'plumb-line-at-edge';
@@ -485,6 +509,16 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
     if (!firstLift && anyLifted(next.r)) {
       const b = bisect(prev.angle, prev.r, next.angle, next.r, anyLifted, lightestLoad);
       firstLift = { ...at(b.angleRad), wheel: liftedWheel(b.loRes, b.hiRes), atTip: false };
+      // A wheel lifting takes its stiffness away at once. Where the stance just past the lift is
+      // unstable, the stable branch ends at the lift (the vehicle lurches over there), even if a
+      // whole step lands on a stable three-wheel stance beyond: that one is not reached quasi-statically.
+      if (b.hiRes.status === 'converged' || b.hiRes.status === 'unstable') {
+        const after = judge(b.hi, b.hiRes, null);
+        if (after.verdict === 'unstable') {
+          liftEnd = { lo: { angle: b.lo, r: b.loRes, minEigen: minEigenOf(b.loRes) }, hi: b.hi, hiRes: b.hiRes };
+          return;
+        }
+      }
     }
     if (findSlide && !slide && maxDemand(next.r) > friction) {
       const b = bisect(prev.angle, prev.r, next.angle, next.r, (r) => maxDemand(r) > friction, (r) => friction - maxDemand(r), true);
