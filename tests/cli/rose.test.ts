@@ -32,8 +32,8 @@ describe('plumbline rose (human output)', () => {
     const j = capture();
     expect(await runCli(['rose', FILE, '--step', '45', '--quiet', '--json'], j.io)).toBe(0);
     const json = JSON.parse(j.out.join('\n'));
-    // --json unchanged: the same keys as before.
-    expect(Object.keys(json)).toEqual(['table', 'maxAngleDeg', 'groundFromLevelDeg', 'weakest', 'weakestLift', 'directions', 'evaluations']);
+    // --json unchanged but for the filled-ground key added beside it: the same keys as before.
+    expect(Object.keys(json)).toEqual(['table', 'maxAngleDeg', 'groundFromLevelDeg', 'weakest', 'weakestLift', 'directions', 'evaluations', 'filledWheels']);
     expect(json.weakest.downhillDeg).toBe(90);
 
     const text = h.out.join('\n').split('\n');
