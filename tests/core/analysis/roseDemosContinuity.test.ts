@@ -19,6 +19,7 @@ import { readFileSync, readdirSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { stabilityRose } from '../../../src/core/analysis/rose';
 import type { Vehicle } from '../../../src/core/model/types';
+import { rigidTipRad } from '../../helpers/rigidTip';
 import { parseScenarioText } from '../../../src/core/scenario/index';
 import { buildModel, solveEquilibrium } from '../../../src/core/solver/equilibrium';
 import { tiltSweep } from '../../../src/core/solver/tilt';
@@ -27,31 +28,6 @@ const DEG = Math.PI / 180;
 const DIR = 'assets/scenarios';
 const POSE = { xM: 0, yM: 0, headingRad: 0 };
 
-/** Rigid tip (rad) over the tyre centre-line rectangle with the total CG (payload included). */
-function rigidTipRad(v: Vehicle, downhillRad: number): number {
-  let m = v.massKg;
-  let ma = v.massKg * v.cg.behindFrontAxleM;
-  let my = v.massKg * v.cg.leftOfCentreM;
-  let mh = v.massKg * v.cg.heightM;
-  for (const p of v.payload) {
-    m += p.massKg;
-    ma += p.massKg * p.behindFrontAxleM;
-    my += p.massKg * p.leftOfCentreM;
-    mh += p.massKg * p.heightM;
-  }
-  const a = ma / m;
-  const b = v.wheelbaseM - a;
-  const y = my / m;
-  const T = 0.5 * (v.trackFrontM + v.trackRearM);
-  const ux = Math.cos(downhillRad);
-  const uy = Math.sin(downhillRad);
-  let reach = Infinity;
-  if (ux > 1e-12) reach = Math.min(reach, a / ux);
-  if (ux < -1e-12) reach = Math.min(reach, b / -ux);
-  if (uy > 1e-12) reach = Math.min(reach, (T / 2 - y) / uy);
-  if (uy < -1e-12) reach = Math.min(reach, (T / 2 + y) / -uy);
-  return Math.atan(reach / (mh / m));
-}
 
 function demoVehicle(file: string): { vehicle: Vehicle; friction: number } {
   const parsed = parseScenarioText(readFileSync(`${DIR}/${file}`, 'utf8'));
