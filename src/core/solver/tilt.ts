@@ -189,17 +189,16 @@ interface BranchPoint {
 
 const _pred = new Float64Array(STATE_SIZE);
 
+/** Where the stable branch ends at the first lift (the stance just past it is unstable). */
+interface LiftEnd {
+  readonly lo: BranchPoint;
+  readonly hiRes: SolveResult;
+}
+
 /**
  * Follows the stable equilibrium branch from the start tilt as the table rises about
  * opts.downhillRad; see the module comment.
  */
-/** Where the stable branch ends at the first lift (the stance just past it is unstable). */
-interface LiftEnd {
-  readonly lo: BranchPoint;
-  readonly hi: number;
-  readonly hiRes: SolveResult;
-}
-
 export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOptions): TiltSweepDetail {
   const start = opts.startAngleRad ?? 0;
   const maxAngle = opts.maxAngleRad ?? 89 * DEG;
@@ -515,7 +514,7 @@ export function tiltSweep(model: VehicleModel, pose: Pose, opts: TiltSweepOption
       if (b.hiRes.status === 'converged' || b.hiRes.status === 'unstable') {
         const after = judge(b.hi, b.hiRes, null);
         if (after.verdict === 'unstable') {
-          liftEnd = { lo: { angle: b.lo, r: b.loRes, minEigen: minEigenOf(b.loRes) }, hi: b.hi, hiRes: b.hiRes };
+          liftEnd = { lo: { angle: b.lo, r: b.loRes, minEigen: minEigenOf(b.loRes) }, hiRes: b.hiRes };
           return;
         }
       }
