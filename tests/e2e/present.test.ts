@@ -99,8 +99,10 @@ describe('the camera', () => {
     const p1 = await pose();
     expect(Math.hypot(p1.xM - p0.xM, p1.yM - p0.yM)).toBeGreaterThan(0.1);
     const c4 = await cam();
-    // The view did not orbit during the drag (the camera followed nothing while dragging).
-    expect(c4.position).toEqual(c3.position);
+    // The view did not orbit during the drag (the camera followed nothing while dragging): the same
+    // position to 1e-9 m (the controls' damping settles in the last bits of a double, run to run).
+    expect(c4.position).toHaveLength(3);
+    for (let k = 0; k < 3; k++) expect(c4.position[k]).toBeCloseTo(c3.position[k], 9);
     expect(dist(c2)).toBeLessThan(dist(c1));
     expect(errors).toEqual([]);
   });
